@@ -1,0 +1,69 @@
+#!/usr/bin/env bash
+# Compiles the invented demo manifests in fixtures/apps/ into real APKs with the Android toolchain
+# (Debian's aapt/aapt2, linked against android-framework-res's framework-res.apk, API 29), and writes
+# the toolchain's own dumps of them next to them. The APKs and dumps are committed, so tests run without
+# the toolchain; rerun this script after changing a demo manifest.
+#
+#   apt-get install -y aapt android-framework-res
+#   npm run fixtures
+set -euo pipefail
+cd "$(dirname "$0")/.."
+FRAMEWORK=${FRAMEWORK:-/usr/share/android-framework-res/framework-res.apk}
+APPS=fixtures/apps
+APK=fixtures/apk
+DUMPS=fixtures/dumps
+WORK=$(mktemp -d)
+trap 'rm -rf "$WORK"' EXIT
+mkdir -p "$APK" "$DUMPS" fixtures/platform
+
+for tool in aapt aapt2; do command -v $tool >/dev/null || { echo "needs $tool (apt-get install aapt)" >&2; exit 1; }; done
+[ -f "$FRAMEWORK" ] || { echo "needs $FRAMEWORK (apt-get install android-framework-res)" >&2; exit 1; }
+
+# aapt2: compile resources, then link. Extra link flags per variant.
+build2() { # name variant [link flags...]
+  local name=$1 variant=$2; shift 2
+  local out="$APK/$variant.apk"
+  rm -rf "$WORK/$variant" && mkdir -p "$WORK/$variant"
+  aapt2 compile --dir "$APPS/$name/res" -o "$WORK/$variant/res.zip"
+  aapt2 link -I "$FRAMEWORK" --manifest "$APPS/$name/AndroidManifest.xml" -o "$out" "$@" "$WORK/$variant/res.zip"
+}
+# aapt (the older packager): needs the manifest to be called AndroidManifest.xml.
+build1() { # name variant [package flags...]
+  local name=$1 variant=$2; shift 2
+  aapt package -f "$@" -M "$APPS/$name/AndroidManifest.xml" -S "$APPS/$name/res" -I "$FRAMEWORK" -F "$APK/$variant.apk"
+}
+
+build2 tidewatch tidewatch
+# Neither packager here stores AndroidManifest.xml uncompressed (both deflate it whatever -0 says), so the
+# stored variant re-packs the toolchain's entries, byte for byte, with every entry stored.
+python3 - "$APK/tidewatch.apk" "$APK/tidewatch-stored.apk" <<'PY'
+import sys, zipfile
+with zipfile.ZipFile(sys.argv[1]) as src, zipfile.ZipFile(sys.argv[2], "w", zipfile.ZIP_STORED) as dst:
+    for info in src.infolist():
+        info.compress_type = zipfile.ZIP_STORED
+        dst.writestr(info, src.read(info.filename))
+PY
+build2 pocketlamp pocketlamp
+build2 chirpchat chirpchat --warn-manifest-validation
+build1 flashdeck flashdeck
+build2 townsquare townsquare
+build2 townsquare townsquare-nons --no-xml-namespaces
+
+for f in "$APK"/*.apk; do
+  v=$(basename "$f" .apk)
+  aapt dump permissions "$f" > "$DUMPS/$v.permissions.txt"
+  aapt dump xmltree "$f" AndroidManifest.xml > "$DUMPS/$v.xmltree.txt"
+  aapt dump badging "$f" > "$DUMPS/$v.badging.txt" 2>/dev/null || true
+  unzip -v "$f" > "$DUMPS/$v.entries.txt"
+done
+# A res/xml file compiled with a UTF-8 string pool, as the toolchain writes those.
+aapt dump xmltree "$APK/tidewatch.apk" res/xml/network_security_config.xml > "$DUMPS/tidewatch.network_security_config.xmltree.txt"
+
+# The platform's own binary manifest (API 29), and aapt's dump of it.
+unzip -o -q -d "$WORK/fw" "$FRAMEWORK" AndroidManifest.xml
+cp "$WORK/fw/AndroidManifest.xml" fixtures/platform/framework-res-AndroidManifest.xml
+aapt dump xmltree "$FRAMEWORK" AndroidManifest.xml > fixtures/platform/framework-res-AndroidManifest.xmltree.txt
+
+# Tables generated from the same platform file.
+node scripts/gen-android-attributes.mjs "$FRAMEWORK"
+echo "fixtures rebuilt with: $(aapt version 2>&1 | head -1); $(aapt2 version 2>&1 | head -1)"

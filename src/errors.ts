@@ -1,0 +1,67 @@
+/**
+ * The typed errors overask raises for bad input. Everything a user can cause by handing us a file
+ * is one of these; anything else escaping the library is a bug in overask.
+ *
+ * Each error carries the file it concerns (when known) so that the CLI can print one line:
+ * `<file>: <message>`.
+ */
+
+/** Base class: the input (a file, bytes, a record) cannot be read as what it claims to be. */
+export class InputError extends Error {
+  override name = "InputError";
+  /** Path or label of the input concerned; set by whoever knows it (often the caller, after the fact). */
+  file?: string;
+  constructor(message: string, options?: { file?: string; cause?: unknown }) {
+    super(message, options?.cause === undefined ? undefined : { cause: options.cause });
+    this.file = options?.file;
+  }
+  /** One line for a person: `file: message`. */
+  describe(): string {
+    return this.file ? `${this.file}: ${this.message}` : this.message;
+  }
+}
+
+/** The zip container is damaged, lies about itself or lacks the manifest. */
+export class ArchiveError extends InputError {
+  override name = "ArchiveError";
+}
+
+/** The Android binary XML (chunked "AXML") cannot be decoded. */
+export class BinaryXmlError extends InputError {
+  override name = "BinaryXmlError";
+}
+
+/** The resource table (resources.arsc) cannot be decoded. */
+export class ResourceTableError extends InputError {
+  override name = "ResourceTableError";
+}
+
+/** A plain-text XML manifest cannot be parsed, or uses a construct we refuse (DTDs, entities). */
+export class PlainXmlError extends InputError {
+  override name = "PlainXmlError";
+}
+
+/** The XML decoded, but it is not an Android manifest (no <manifest> root, no package). */
+export class ManifestError extends InputError {
+  override name = "ManifestError";
+}
+
+/** A length, count, size or depth read from the input exceeds a named limit. */
+export class LimitError extends InputError {
+  override name = "LimitError";
+  constructor(
+    readonly limitName: string,
+    readonly found: number,
+    readonly allowed: number,
+    what: string,
+    options?: { file?: string },
+  ) {
+    super(`${what} ${found}; the limit (${limitName}) is ${allowed}`, options);
+  }
+}
+
+/** Attach a file name to an InputError that was raised without one (decoders do not know paths). */
+export function withFile<E>(error: E, file: string): E {
+  if (error instanceof InputError && error.file === undefined) error.file = file;
+  return error;
+}

@@ -1,0 +1,155 @@
+/**
+ * The one Manifest model every input is read into (binary manifest, APK, plain source manifest).
+ * Documented for JSON consumers in docs/manifest-json.md; bump MANIFEST_SCHEMA_VERSION on any change
+ * that could break a reader.
+ */
+import type { BaseLevel } from "../platform/protection.js";
+
+export const MANIFEST_SCHEMA_VERSION = 1;
+
+/** Where an element came from: the element path always; the source line when the input records one. */
+export interface SourceLocation {
+  path: string;
+  line?: number;
+}
+
+export type InputKind = "apk" | "binary-xml" | "plain-xml";
+
+export interface InputInfo {
+  kind: InputKind;
+  /** Storage of the XML itself. */
+  encoding: "binary-utf8" | "binary-utf16" | "text";
+  /** For archives: the entry the manifest was read from, and how it was stored. */
+  entry?: { name: string; method: "stored" | "deflated"; compressedSize: number; size: number };
+  /** Whether a resources.arsc was available to resolve references. */
+  resourceTable: boolean;
+}
+
+/** What the platform says about a permission an app requests. */
+export interface PermissionFacts {
+  /** `platform`: defined by Android itself; `app`: declared by this manifest; `other`: neither (a library's, another app's, or unknown). */
+  origin: "platform" | "app" | "other";
+  /** Raw protection level, as the platform table (or the app's own <permission>) gives it. */
+  protectionLevel?: string;
+  base?: BaseLevel;
+  flags?: string[];
+  hardRestricted?: boolean;
+  softRestricted?: boolean;
+  /** The platform keeps the name only for backwards compatibility. */
+  removed?: boolean;
+  docNote?: string;
+  /** The name looks like a platform permission (`android.permission.*`) but the platform does not define it. */
+  unknownPlatformName?: boolean;
+}
+
+export interface RequestedPermission {
+  name: string;
+  element: "uses-permission" | "uses-permission-sdk-23" | "uses-permission-sdk-m";
+  maxSdkVersion?: number;
+  /** `tools:node="remove"` in a source manifest: the manifest merger drops this request. */
+  removedByTools?: boolean;
+  facts: PermissionFacts;
+  source: SourceLocation;
+}
+
+export interface DeclaredPermission {
+  name: string;
+  protectionLevel: { base: BaseLevel; flags: string[]; value: number };
+  permissionGroup?: string;
+  source: SourceLocation;
+}
+
+export interface PermissionGroupDeclaration {
+  name: string;
+  source: SourceLocation;
+}
+
+export interface UsesFeature {
+  name?: string;
+  glEsVersion?: string;
+  required: boolean;
+  source: SourceLocation;
+}
+
+export interface IntentFilter {
+  actions: string[];
+  categories: string[];
+  data: { scheme?: string; host?: string; mimeType?: string; path?: string }[];
+  priority?: number;
+}
+
+export type ComponentKind = "activity" | "activity-alias" | "service" | "receiver" | "provider";
+
+export interface Component {
+  kind: ComponentKind;
+  /** Fully-qualified class name (relative names resolved against the package, as the platform does). */
+  name: string;
+  targetActivity?: string;
+  permission?: string;
+  readPermission?: string;
+  writePermission?: string;
+  authorities?: string;
+  /** The android:exported attribute, when the manifest sets it. */
+  exported?: boolean;
+  /** Whether other apps can reach the component, after the platform's defaults. */
+  effectiveExported: boolean;
+  /** Why `effectiveExported` has its value. */
+  exportedReason: "explicit" | "intent-filter-default" | "no-intent-filter" | "provider-legacy-default" | "missing-at-target-31";
+  enabled?: boolean;
+  intentFilters: IntentFilter[];
+  source: SourceLocation;
+}
+
+export interface Queries {
+  packages: string[];
+  intents: IntentFilter[];
+  providers: string[];
+}
+
+export interface ApplicationFlags {
+  debuggable?: boolean;
+  allowBackup?: boolean;
+  usesCleartextTraffic?: boolean;
+  networkSecurityConfig: boolean;
+  requestLegacyExternalStorage?: boolean;
+  testOnly?: boolean;
+}
+
+export interface MetaData {
+  name: string;
+  value?: string;
+  resource?: string;
+  source: SourceLocation;
+}
+
+export interface Manifest {
+  schemaVersion: typeof MANIFEST_SCHEMA_VERSION;
+  package: string;
+  versionCode?: number;
+  versionName?: string;
+  minSdk?: number;
+  targetSdk?: number;
+  maxSdk?: number;
+  compileSdk?: number;
+  compileSdkCodename?: string;
+  /** The app label, resolved through resources.arsc for binary input; `@0x7f…` when it cannot be. */
+  label?: string;
+  labelSource?: "literal" | "resource" | "unresolved";
+  appCategory?: string;
+  usesPermissions: RequestedPermission[];
+  declaredPermissions: DeclaredPermission[];
+  permissionGroups: PermissionGroupDeclaration[];
+  usesFeatures: UsesFeature[];
+  application: ApplicationFlags;
+  components: Component[];
+  queries: Queries;
+  metaData: MetaData[];
+  input: InputInfo;
+  /** Things a reader should know about how the manifest was read (duplicates, ignored values). */
+  notes: string[];
+}
+
+/** The distinct permissions a manifest requests (after tools:node="remove"), sorted. */
+export function requestedPermissionNames(m: Manifest): string[] {
+  return [...new Set(m.usesPermissions.filter((p) => !p.removedByTools).map((p) => p.name))].sort();
+}

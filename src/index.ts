@@ -1,0 +1,18 @@
+/**
+ * overask as a library: the same operations the CLI offers.
+ */
+export { readManifestBytes, readManifestFile, detectKind } from "./extract/index.js";
+export { decodeBinaryXml } from "./extract/binary/binary-xml.js";
+export { ResourceTable } from "./extract/binary/resource-table.js";
+export { parsePlainXml } from "./extract/plain-xml.js";
+export { openArchiveBytes, openArchiveFile, type ArchiveReader, type ArchiveEntryInfo } from "./extract/archive.js";
+export { buildManifest, qualifyClassName } from "./extract/build-manifest.js";
+export * from "./extract/model.js";
+export type { XmlDocument, XmlElement, XmlAttribute } from "./extract/xml-tree.js";
+export { platformPermission, platformPermissions, normalizePermissionName, PLATFORM_TABLE_VERSION } from "./platform/permissions.js";
+export { protectionFromInt, protectionFromText } from "./platform/protection.js";
+export { factsToJson, factsToText, type FactsResult } from "./report/facts.js";
+export * from "./errors.js";
+export { LIMITS } from "./limits.js";
+export { TOOL_VERSION } from "./version.js";
+export { run as runCli } from "./cli/main.js";

@@ -1,0 +1,33 @@
+/**
+ * Named caps on everything read from untrusted input. Every length, count, offset or size taken from
+ * a file is checked against one of these before it is used, and a breach raises a LimitError naming it.
+ *
+ * The values are generous for real apps: the platform's own framework manifest (the largest manifest
+ * there is, API 29) is 222,464 bytes with 4,700 strings and about 3,000 elements.
+ */
+export const LIMITS = {
+  /** Largest manifest (binary or plain) we will decode, in bytes, after inflation. */
+  MAX_MANIFEST_BYTES: 16 * 1024 * 1024,
+  /** Largest resources.arsc we will read to resolve labels; real apps reach tens of MB. */
+  MAX_RESOURCE_TABLE_BYTES: 128 * 1024 * 1024,
+  /** Largest compression ratio an archive entry may claim or show (inflated / compressed). */
+  MAX_COMPRESSION_RATIO: 1000,
+  /** Most entries we accept in an archive's central directory. */
+  MAX_ARCHIVE_ENTRIES: 500_000,
+  /** Strings in one string pool. */
+  MAX_STRING_COUNT: 2_000_000,
+  /** UTF-16 units or UTF-8 bytes in one pool string. */
+  MAX_STRING_LENGTH: 1_000_000,
+  /** Elements in one XML document. */
+  MAX_ELEMENT_COUNT: 1_000_000,
+  /** Attributes on one element. */
+  MAX_ATTRIBUTE_COUNT: 10_000,
+  /** Nesting depth of elements. */
+  MAX_DEPTH: 256,
+  /** Entries in one resource type chunk. */
+  MAX_TYPE_ENTRIES: 1_000_000,
+  /** Hops when a string resource refers to another resource. */
+  MAX_REFERENCE_HOPS: 8,
+} as const;
+
+export type LimitName = keyof typeof LIMITS;

@@ -1,0 +1,87 @@
+/**
+ * The platform's own permission definitions (Android 14 / API 34, from the framework manifest; see
+ * src/platform/data/SOURCES.md): protection level, flags and restrictions for each platform permission.
+ * Loaded once, on first use.
+ */
+import { readFileSync } from "node:fs";
+import { protectionFromText, type BaseLevel } from "./protection.js";
+
+export const PLATFORM_TABLE_VERSION = "android-34 (framework core/res/AndroidManifest.xml; see src/platform/data/SOURCES.md)";
+
+export interface PlatformPermission {
+  name: string;
+  protectionLevel: string;
+  base: BaseLevel;
+  flags: string[];
+  hardRestricted: boolean;
+  softRestricted: boolean;
+  /** Kept by the platform only for backwards compatibility. */
+  removed: boolean;
+  backgroundPermission?: string;
+  /** `deprecated`, `removed` or `no-longer-supported` from the platform's documentation comment. */
+  docNote?: string;
+}
+
+// Works from src/platform/ (tests) and dist/platform/ (the built CLI): both sit two levels below the root.
+const DATA_DIR = new URL("../../src/platform/data/", import.meta.url);
+
+let table: Map<string, PlatformPermission> | undefined;
+
+/** Parses the platform permission TSV (header row, tab-separated). */
+export function parsePlatformTable(tsv: string): Map<string, PlatformPermission> {
+  const lines = tsv.split(/\r?\n/).filter((l) => l !== "");
+  const header = lines[0].split("\t");
+  const col = (name: string) => {
+    const i = header.indexOf(name);
+    if (i < 0) throw new Error(`platform table lacks column ${name}`);
+    return i;
+  };
+  const c = {
+    name: col("name"),
+    level: col("protection_level"),
+    hard: col("hard_restricted"),
+    soft: col("soft_restricted"),
+    removed: col("removed"),
+    background: col("background_permission"),
+    note: col("doc_note"),
+  };
+  const out = new Map<string, PlatformPermission>();
+  for (const line of lines.slice(1)) {
+    const f = line.split("\t");
+    const level = protectionFromText(f[c.level]);
+    const p: PlatformPermission = {
+      name: f[c.name],
+      protectionLevel: f[c.level],
+      base: level.base,
+      flags: level.flags,
+      hardRestricted: f[c.hard] === "yes",
+      softRestricted: f[c.soft] === "yes",
+      removed: f[c.removed] === "yes",
+    };
+    if (f[c.background]) p.backgroundPermission = f[c.background];
+    if (f[c.note]) p.docNote = f[c.note];
+    out.set(p.name, p);
+  }
+  return out;
+}
+
+/** All platform permissions by full name. */
+export function platformPermissions(): ReadonlyMap<string, PlatformPermission> {
+  table ??= parsePlatformTable(readFileSync(new URL("android-platform-permissions.tsv", DATA_DIR), "utf8"));
+  return table;
+}
+
+/** The platform definition of `name`, if the platform defines it. */
+export function platformPermission(name: string): PlatformPermission | undefined {
+  return platformPermissions().get(name);
+}
+
+/**
+ * Normalizes a permission name: a bare platform name (`SEND_SMS`) becomes `android.permission.SEND_SMS`
+ * when the platform defines it; any other name is kept as written.
+ */
+export function normalizePermissionName(name: string): string {
+  const trimmed = name.trim();
+  if (!trimmed.includes(".") && platformPermissions().has(`android.permission.${trimmed}`)) return `android.permission.${trimmed}`;
+  return trimmed;
+}

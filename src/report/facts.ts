@@ -1,0 +1,137 @@
+/**
+ * Formatters for `overask facts`: pure functions from results to text.
+ */
+import { MANIFEST_SCHEMA_VERSION, type Component, type Manifest, type RequestedPermission } from "../extract/model.js";
+import { TOOL_VERSION } from "../version.js";
+import { PLAIN, fit, type Style } from "./style.js";
+
+export interface FactsResult {
+  file: string;
+  manifest?: Manifest;
+  error?: { kind: string; message: string };
+}
+
+/** JSON: one document for all inputs, so that a failed input is a result, not a lost run. */
+export function factsToJson(results: FactsResult[]): string {
+  return `${JSON.stringify({ tool: "overask", version: TOOL_VERSION, schemaVersion: MANIFEST_SCHEMA_VERSION, results }, null, 2)}\n`;
+}
+
+const WIDTH = 80;
+
+export function factsToText(results: FactsResult[], style: Style = PLAIN): string {
+  const parts: string[] = [];
+  for (const r of results) {
+    if (r.manifest) parts.push(manifestText(r.file, r.manifest, style));
+    else parts.push(`${style.alert("error")} ${r.file}: ${r.error?.message ?? "unreadable"}\n`);
+  }
+  return parts.join("\n");
+}
+
+function inputText(m: Manifest): string {
+  const kind = { apk: "APK", "binary-xml": "binary manifest", "plain-xml": "source manifest" }[m.input.kind];
+  const enc = { "binary-utf8": "UTF-8 strings", "binary-utf16": "UTF-16 strings", text: "text" }[m.input.encoding];
+  return m.input.kind === "plain-xml" ? kind : `${kind}, ${enc}`;
+}
+
+function permissionNotes(p: RequestedPermission): string {
+  const f = p.facts;
+  const notes: string[] = [];
+  if (f.origin === "app") notes.push("declared by this app");
+  if (f.origin === "other") notes.push(f.unknownPlatformName ? "not defined by the platform" : "not a platform permission");
+  if (f.hardRestricted) notes.push("hard-restricted");
+  if (f.softRestricted) notes.push("soft-restricted");
+  if (f.removed) notes.push("removed from the platform");
+  else if (f.docNote) notes.push(f.docNote);
+  if (f.flags?.includes("appop")) notes.push("appop");
+  if (f.flags?.includes("privileged")) notes.push("privileged");
+  if (p.maxSdkVersion !== undefined) notes.push(`up to SDK ${p.maxSdkVersion}`);
+  if (p.element !== "uses-permission") notes.push(`<${p.element}>`);
+  if (p.removedByTools) notes.push('tools:node="remove"');
+  return notes.join(", ");
+}
+
+function levelText(p: RequestedPermission, style: Style): string {
+  const base = p.facts.base ?? "—";
+  if (base === "dangerous") return style.warn(fit(base, 10));
+  if (base === "signature" || base === "internal" || base === "signatureOrSystem") return style.alert(fit(base, 10));
+  return fit(base, 10);
+}
+
+function exportText(c: Component): string {
+  const guard = c.permission ?? (c.kind === "provider" ? c.readPermission ?? c.writePermission : undefined);
+  const why = {
+    explicit: "exported=true",
+    "intent-filter-default": "intent filter, exported by default below SDK 31",
+    "provider-legacy-default": "provider, exported by default up to SDK 16",
+    "no-intent-filter": "",
+    "missing-at-target-31": "",
+  }[c.exportedReason];
+  return `${guard ? `guarded by ${guard}` : "no permission"}; ${why}`;
+}
+
+function manifestText(file: string, m: Manifest, s: Style): string {
+  const out: string[] = [];
+  const title = m.label && m.labelSource !== "unresolved" ? `${m.package}  “${m.label}”` : m.package;
+  out.push(s.bold(title));
+  const row = (k: string, v: string) => out.push(`  ${fit(k, 10)}  ${v}`);
+  row("file", `${file} (${inputText(m)})`);
+  if (m.versionName !== undefined || m.versionCode !== undefined) {
+    row("version", [m.versionName, m.versionCode !== undefined ? `(code ${m.versionCode})` : undefined].filter(Boolean).join(" "));
+  }
+  const sdk = [
+    `min ${m.minSdk ?? "—"}`,
+    `target ${m.targetSdk ?? "—"}`,
+    ...(m.maxSdk !== undefined ? [`max ${m.maxSdk}`] : []),
+    ...(m.compileSdk !== undefined ? [`compiled against ${m.compileSdk}`] : []),
+  ];
+  row("SDK", sdk.join(" · "));
+  if (m.label && m.labelSource === "unresolved") row("label", `${m.label} (unresolved reference)`);
+  if (m.appCategory) row("category", `${m.appCategory} (android:appCategory)`);
+  const a = m.application;
+  const flags = [
+    a.debuggable ? s.alert("debuggable") : undefined,
+    a.usesCleartextTraffic ? s.warn("cleartext traffic allowed") : undefined,
+    a.allowBackup === false ? "backup disabled" : a.allowBackup ? "backup allowed" : undefined,
+    a.networkSecurityConfig ? "network security config" : undefined,
+    a.requestLegacyExternalStorage ? "legacy external storage" : undefined,
+    a.testOnly ? "test-only" : undefined,
+  ].filter(Boolean);
+  if (flags.length) row("app flags", flags.join(", "));
+
+  const perms = m.usesPermissions;
+  out.push("", s.bold(`Requested permissions (${perms.length})`));
+  if (perms.length === 0) out.push("  none");
+  else {
+    const nameWidth = Math.min(52, Math.max(...perms.map((p) => p.name.length)));
+    out.push(s.dim(`  ${fit("PERMISSION", nameWidth)}  ${fit("LEVEL", 10)}  NOTES`));
+    for (const p of [...perms].sort(byName)) {
+      const notes = permissionNotes(p);
+      const line = `  ${fit(p.name, nameWidth)}  ${levelText(p, s)}  ${notes}`;
+      if (2 + nameWidth + 2 + 10 + 2 + notes.length <= WIDTH) out.push(line.trimEnd());
+      else out.push(`  ${fit(p.name, nameWidth)}  ${levelText(p, s)}`.trimEnd(), `      ${notes}`);
+    }
+  }
+  if (m.declaredPermissions.length) {
+    out.push("", s.bold(`Declared permissions (${m.declaredPermissions.length})`));
+    for (const d of [...m.declaredPermissions].sort(byName)) {
+      const level = [d.protectionLevel.base, ...d.protectionLevel.flags].join("|");
+      out.push(`  ${d.name}  ${s.dim(level)}`);
+    }
+  }
+  const exported = m.components.filter((c) => c.effectiveExported);
+  out.push("", s.bold(`Exported components (${exported.length} of ${m.components.length})`));
+  if (exported.length === 0) out.push("  none");
+  for (const c of exported) {
+    out.push(`  ${fit(c.kind, 14)}  ${c.name}`);
+    out.push(s.dim(`  ${" ".repeat(14)}  ${exportText(c)}`));
+  }
+  if (m.notes.length) {
+    out.push("", s.bold("Notes"));
+    for (const n of m.notes) out.push(`  - ${n}`);
+  }
+  return `${out.join("\n")}\n`;
+}
+
+function byName(a: { name: string }, b: { name: string }): number {
+  return a.name < b.name ? -1 : a.name > b.name ? 1 : 0;
+}

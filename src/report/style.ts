@@ -1,0 +1,27 @@
+/**
+ * Terminal styling: colour only when writing to a terminal and never when NO_COLOR is set
+ * (the no-color.org convention, common practice).
+ */
+export interface Style {
+  bold(s: string): string;
+  dim(s: string): string;
+  warn(s: string): string;
+  alert(s: string): string;
+}
+
+const plainStyle: Style = { bold: (s) => s, dim: (s) => s, warn: (s) => s, alert: (s) => s };
+const sgr = (code: string) => (s: string) => `\u001b[${code}m${s}\u001b[0m`;
+const colourStyle: Style = { bold: sgr("1"), dim: sgr("2"), warn: sgr("33"), alert: sgr("31") };
+
+export function pickStyle(stream: { isTTY?: boolean }, env: NodeJS.ProcessEnv = process.env): Style {
+  const noColor = env.NO_COLOR !== undefined && env.NO_COLOR !== "";
+  return stream.isTTY && !noColor ? colourStyle : plainStyle;
+}
+
+export const PLAIN: Style = plainStyle;
+
+/** Pads `s` to `width` columns, or cuts it with an ellipsis when longer. */
+export function fit(s: string, width: number): string {
+  if (s.length <= width) return s.padEnd(width);
+  return `${s.slice(0, Math.max(0, width - 1))}…`;
+}
