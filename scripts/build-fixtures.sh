@@ -40,8 +40,10 @@ python3 - "$APK/tidewatch.apk" "$APK/tidewatch-stored.apk" <<'PY'
 import sys, zipfile
 with zipfile.ZipFile(sys.argv[1]) as src, zipfile.ZipFile(sys.argv[2], "w", zipfile.ZIP_STORED) as dst:
     for info in src.infolist():
-        info.compress_type = zipfile.ZIP_STORED
-        dst.writestr(info, src.read(info.filename))
+        data = src.read(info.filename)
+        copy = zipfile.ZipInfo(info.filename, date_time=info.date_time)
+        copy.compress_type = zipfile.ZIP_STORED
+        dst.writestr(copy, data)
 PY
 build2 pocketlamp pocketlamp
 build2 chirpchat chirpchat --warn-manifest-validation
