@@ -35,7 +35,7 @@ export type TypedValue =
   | { kind: "unknown"; type: number; data: number };
 
 const DIMENSION_UNITS = ["px", "dp", "sp", "pt", "in", "mm"]; // TypedValue.COMPLEX_UNIT_* 0..5
-const RADIX_SHIFTS = [23, 16, 8, 0]; // TypedValue.COMPLEX_RADIX_23p0 .. 0p23: mantissa scale
+const RADIX_SHIFTS = [0, 7, 15, 23]; // TypedValue.COMPLEX_RADIX_23p0, 16p7, 8p15, 0p23: fraction bits of the mantissa
 
 /** Decodes a complex (dimension/fraction) value: 24-bit mantissa, 2-bit radix, 4-bit unit. */
 function complexToFloat(data: number): number {

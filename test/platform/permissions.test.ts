@@ -1,0 +1,57 @@
+/**
+ * The platform permission table (src/platform/data, from the API 34 framework manifest; see its
+ * SOURCES.md). Counts below are the ones SOURCES.md states.
+ */
+import { readFileSync } from "node:fs";
+import { describe, expect, it } from "vitest";
+import { normalizePermissionName, parsePlatformTable, platformPermission, platformPermissions } from "../../src/platform/permissions.js";
+import { protectionFromInt, protectionFromText } from "../../src/platform/protection.js";
+import { ROOT } from "../helpers/paths.js";
+
+describe("platform permission table", () => {
+  it("parses every row, with the counts its SOURCES.md states", () => {
+    const table = platformPermissions();
+    expect(table.size).toBe(913);
+    const byBase = new Map<string, number>();
+    for (const p of table.values()) byBase.set(p.base, (byBase.get(p.base) ?? 0) + 1);
+    expect(Object.fromEntries(byBase)).toEqual({ dangerous: 42, normal: 93, signature: 676, internal: 102 });
+    expect([...table.values()].filter((p) => p.hardRestricted)).toHaveLength(11);
+    expect([...table.values()].filter((p) => p.softRestricted)).toHaveLength(2);
+    expect([...table.values()].filter((p) => p.removed)).toHaveLength(15);
+  });
+
+  it("agrees with the sanity checks in SOURCES.md", () => {
+    expect(platformPermission("android.permission.CAMERA")).toMatchObject({ base: "dangerous", flags: ["instant"] });
+    expect(platformPermission("android.permission.READ_SMS")).toMatchObject({ base: "dangerous", hardRestricted: true });
+    expect(platformPermission("android.permission.INSTALL_PACKAGES")).toMatchObject({ base: "signature", flags: ["privileged"] });
+    expect(platformPermission("android.permission.ACCESS_BACKGROUND_LOCATION")).toMatchObject({ base: "dangerous", hardRestricted: true });
+    // Token order does not matter to the platform's parser: `module|signature|role` is a signature permission.
+    expect(platformPermission("android.permission.MANAGE_COMPANION_DEVICES")?.base).toBe("signature");
+  });
+
+  it("reads the integer and the text form of a protection level alike", () => {
+    for (const p of platformPermissions().values()) {
+      const text = protectionFromText(p.protectionLevel);
+      expect(protectionFromInt(text.value).base).toBe(text.base);
+    }
+    expect(protectionFromText("signature|privileged").value).toBe(0x12);
+  });
+
+  it("normalizes bare platform names and keeps others as written", () => {
+    expect(normalizePermissionName("SEND_SMS")).toBe("android.permission.SEND_SMS");
+    expect(normalizePermissionName("com.google.android.c2dm.permission.RECEIVE")).toBe("com.google.android.c2dm.permission.RECEIVE");
+    expect(normalizePermissionName("NOT_A_PLATFORM_NAME")).toBe("NOT_A_PLATFORM_NAME");
+  });
+
+  it("uses the same TSV as the shared reference, byte for byte, when that is at hand", () => {
+    const ours = readFileSync(`${ROOT}src/platform/data/android-platform-permissions.tsv`, "utf8");
+    let shared: string | undefined;
+    try {
+      shared = readFileSync(`${ROOT}../shared/reference/android-platform-permissions.tsv`, "utf8");
+    } catch {
+      return; // a user's clone has no ../shared: the copy in src/platform/data is the reference
+    }
+    expect(ours).toBe(shared);
+    expect(parsePlatformTable(ours).size).toBe(913);
+  });
+});
