@@ -57,23 +57,45 @@ function levelText(p: RequestedPermission, style: Style): string {
   return fit(base, 10);
 }
 
-function exportText(c: Component): string {
+function exportText(c: Component): string[] {
   const guard = c.permission ?? (c.kind === "provider" ? c.readPermission ?? c.writePermission : undefined);
   const why = {
-    explicit: "exported=true",
-    "intent-filter-default": "intent filter, exported by default below SDK 31",
-    "provider-legacy-default": "provider, exported by default up to SDK 16",
+    explicit: "android:exported=true",
+    "intent-filter-default": "exported by default (intent filter, targetSdk < 31)",
+    "provider-legacy-default": "exported by default (provider, targetSdk <= 16)",
     "no-intent-filter": "",
     "missing-at-target-31": "",
   }[c.exportedReason];
-  return `${guard ? `guarded by ${guard}` : "no permission"}; ${why}`;
+  return [why, guard ? `requires ${shortName(guard)}` : "no permission required"];
+}
+
+const PLATFORM_PREFIX = "android.permission.";
+
+/** Permission names in tables drop the `android.permission.` prefix; the table heading says so. */
+function shortName(name: string): string {
+  return name.startsWith(PLATFORM_PREFIX) ? name.slice(PLATFORM_PREFIX.length) : name;
+}
+
+/** Word-wraps `text` to `width` columns, continuation lines indented by `indent` spaces. */
+function wrap(text: string, width: number, indent: number): string[] {
+  const lead = /^ */.exec(text)![0];
+  const lines: string[] = [];
+  let line = lead;
+  for (const word of text.slice(lead.length).split(" ")) {
+    if (line.trim() && line.length + 1 + word.length > width) {
+      lines.push(line);
+      line = " ".repeat(indent) + word;
+    } else line = line.trim() ? `${line} ${word}` : line + word;
+  }
+  if (line.trim()) lines.push(line);
+  return lines;
 }
 
 function manifestText(file: string, m: Manifest, s: Style): string {
   const out: string[] = [];
   const title = m.label && m.labelSource !== "unresolved" ? `${m.package}  “${m.label}”` : m.package;
   out.push(s.bold(title));
-  const row = (k: string, v: string) => out.push(`  ${fit(k, 10)}  ${v}`);
+  const row = (k: string, v: string) => out.push(...wrap(`  ${fit(k, 10)}  ${v}`, WIDTH, 14));
   row("file", `${file} (${inputText(m)})`);
   if (m.versionName !== undefined || m.versionCode !== undefined) {
     row("version", [m.versionName, m.versionCode !== undefined ? `(code ${m.versionCode})` : undefined].filter(Boolean).join(" "));
@@ -99,23 +121,25 @@ function manifestText(file: string, m: Manifest, s: Style): string {
   if (flags.length) row("app flags", flags.join(", "));
 
   const perms = m.usesPermissions;
-  out.push("", s.bold(`Requested permissions (${perms.length})`));
+  out.push("", `${s.bold(`Requested permissions (${perms.length})`)}${perms.some((p) => p.name.startsWith(PLATFORM_PREFIX)) ? s.dim(`  names without “${PLATFORM_PREFIX}”`) : ""}`);
   if (perms.length === 0) out.push("  none");
   else {
-    const nameWidth = Math.min(52, Math.max(...perms.map((p) => p.name.length)));
+    const nameWidth = Math.min(30, Math.max(10, ...perms.map((p) => shortName(p.name).length)));
+    const notesAt = 2 + nameWidth + 2 + 10 + 2;
     out.push(s.dim(`  ${fit("PERMISSION", nameWidth)}  ${fit("LEVEL", 10)}  NOTES`));
     for (const p of [...perms].sort(byName)) {
-      const notes = permissionNotes(p);
-      const line = `  ${fit(p.name, nameWidth)}  ${levelText(p, s)}  ${notes}`;
-      if (2 + nameWidth + 2 + 10 + 2 + notes.length <= WIDTH) out.push(line.trimEnd());
-      else out.push(`  ${fit(p.name, nameWidth)}  ${levelText(p, s)}`.trimEnd(), `      ${notes}`);
+      const name = shortName(p.name);
+      const head = `  ${fit(name.length > nameWidth ? "" : name, nameWidth)}  ${levelText(p, s)}  `;
+      if (name.length > nameWidth) out.push(`  ${name}`);
+      const notes = wrap(permissionNotes(p), WIDTH - notesAt, 0);
+      out.push(`${head}${notes[0] ?? ""}`.trimEnd(), ...notes.slice(1).map((n) => " ".repeat(notesAt) + n));
     }
   }
   if (m.declaredPermissions.length) {
     out.push("", s.bold(`Declared permissions (${m.declaredPermissions.length})`));
     for (const d of [...m.declaredPermissions].sort(byName)) {
       const level = [d.protectionLevel.base, ...d.protectionLevel.flags].join("|");
-      out.push(`  ${d.name}  ${s.dim(level)}`);
+      out.push(`  ${d.name}`, s.dim(`      ${level}`));
     }
   }
   const exported = m.components.filter((c) => c.effectiveExported);
@@ -123,11 +147,11 @@ function manifestText(file: string, m: Manifest, s: Style): string {
   if (exported.length === 0) out.push("  none");
   for (const c of exported) {
     out.push(`  ${fit(c.kind, 14)}  ${c.name}`);
-    out.push(s.dim(`  ${" ".repeat(14)}  ${exportText(c)}`));
+    for (const part of exportText(c)) for (const line of wrap(part, WIDTH - 18, 2)) out.push(s.dim(`${" ".repeat(18)}${line}`));
   }
   if (m.notes.length) {
     out.push("", s.bold("Notes"));
-    for (const n of m.notes) out.push(`  - ${n}`);
+    for (const n of m.notes) out.push(...wrap(`  - ${n}`, WIDTH, 4));
   }
   return `${out.join("\n")}\n`;
 }
