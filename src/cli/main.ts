@@ -4,8 +4,7 @@
  */
 import { Command, CommanderError, Option } from "commander";
 import { InputError } from "../errors.js";
-import { readManifestFile } from "../extract/index.js";
-import { factsToJson, factsToText, type FactsResult } from "../report/facts.js";
+import type { FactsResult } from "../report/facts.js";
 import { pickStyle } from "../report/style.js";
 import { TOOL_VERSION } from "../version.js";
 import { EXIT } from "./exit-codes.js";
@@ -36,7 +35,10 @@ export async function run(argv: string[], io: Io = defaultIo): Promise<number> {
     .description("read APKs or manifests (binary or plain XML) and print what they declare")
     .argument("<file...>", "APK, binary AndroidManifest.xml or plain AndroidManifest.xml files")
     .addOption(new Option("-f, --format <format>", "output format").choices(["text", "json"]).default("text"))
-    .action((files: string[], opts: { format: "text" | "json" }) => {
+    .action(async (files: string[], opts: { format: "text" | "json" }) => {
+      // Commands load their modules when run, so `--help` and `--version` start fast.
+      const { readManifestFile } = await import("../extract/index.js");
+      const { factsToJson, factsToText } = await import("../report/facts.js");
       const results: FactsResult[] = [];
       for (const file of files) {
         try {

@@ -3,10 +3,13 @@
  * the decoders. Two entry points: `openArchiveFile` for a path, `openArchiveBytes` for bytes in memory.
  *
  * Reading a large APK: adm-zip parses an in-memory buffer. Rather than read a 200 MB file to look at a
- * 3 KB manifest, `openArchiveFile` hands adm-zip a zero-filled buffer of the file's size into which only
- * the end-of-central-directory record, the central directory and (on request) the one entry's local
- * header and data are read. The kernel commits only the pages written, so time and memory follow what
- * is read, not the file size.
+ * 3 KB manifest, `openArchiveFile` reads the end-of-central-directory record and the central directory,
+ * hands adm-zip just those (with the directory's offset rewritten to 0), and reads an entry's local
+ * header and data from the file itself when asked. Time and memory follow what is read, not the file size.
+ *
+ * adm-zip also builds a full header object for every directory record, which we measured at tens of
+ * microseconds each; APKs carry thousands of entries. A caller that needs only some entries names them
+ * (`only`), and one pass over the directory keeps just those records for adm-zip to parse.
  *
  * Inflation is ours, not adm-zip's: it would inflate a zip bomb in full, so every entry is checked
  * against its declared size and a named limit first, and inflated with a hard output cap.
@@ -39,7 +42,7 @@ const EOCD_SIZE = 22;
 const EOCD_SEARCH = EOCD_SIZE + 0xffff;
 const LOCAL_HEADER_SIZE = 30;
 /** Files up to this size are simply read whole. */
-const READ_WHOLE_BELOW = 4 * 1024 * 1024;
+const READ_WHOLE_BELOW = 1024 * 1024;
 
 export function looksLikeZip(bytes: Uint8Array): boolean {
   return ZIP_LOCAL_MAGIC.every((b, i) => bytes[i] === b) || (bytes[0] === 0x50 && bytes[1] === 0x4b && bytes[2] === 0x05 && bytes[3] === 0x06);
@@ -50,49 +53,85 @@ export function openArchiveBytes(bytes: Uint8Array): ArchiveReader {
   return new AdmArchive(buf, () => {});
 }
 
-/** Opens an archive on disk, reading only what is needed from large files. */
-export function openArchiveFile(path: string): ArchiveReader {
+/**
+ * Opens an archive on disk, reading only what is needed from large files. With `only`, the reader
+ * lists and reads just the entries of those names (all records of each name, so duplicates still show).
+ */
+export function openArchiveFile(path: string, only?: readonly string[]): ArchiveReader {
   const fd = openSync(path, "r");
+  const close = () => closeSync(fd);
   try {
     const size = fstatSync(fd).size;
     if (size < READ_WHOLE_BELOW) {
       const buf = Buffer.alloc(size);
-      readFully(fd, buf, 0, size);
-      closeSync(fd);
+      readAt(fd, buf, 0, size, 0);
+      close();
       return new AdmArchive(buf, () => {});
     }
-    const buf = Buffer.alloc(size); // zero pages: committed only where written
     const tailStart = Math.max(0, size - EOCD_SEARCH);
-    readFully(fd, buf, tailStart, size - tailStart);
-    const eocd = findEocd(buf, tailStart);
+    const tail = Buffer.alloc(size - tailStart);
+    readAt(fd, tail, 0, tail.length, tailStart);
+    const eocd = findEocd(tail);
     if (eocd < 0) throw new ArchiveError("no end of central directory record (not a zip archive, or truncated)");
-    const cdSize = buf.readUInt32LE(eocd + 12); // EOCD: size of the central directory
-    const cdOffset = buf.readUInt32LE(eocd + 16); // EOCD: offset of start of central directory
+    const cdSize = tail.readUInt32LE(eocd + 12); // EOCD: size of the central directory
+    const cdOffset = tail.readUInt32LE(eocd + 16); // EOCD: offset of start of central directory
     if (cdOffset === 0xffffffff || cdSize === 0xffffffff) {
-      readFully(fd, buf, 0, tailStart); // zip64: let adm-zip find its way through the whole file
-    } else {
-      if (cdOffset + cdSize > eocd) throw new ArchiveError(`central directory (${cdSize} bytes at ${cdOffset}) overlaps its end record at ${eocd}`);
-      if (cdOffset < tailStart) readFully(fd, buf, cdOffset, tailStart - cdOffset);
+      // Zip64: rare for APKs; let adm-zip find its way through the whole file.
+      const buf = Buffer.alloc(size);
+      readAt(fd, buf, 0, size, 0);
+      close();
+      return new AdmArchive(buf, () => {});
     }
-    const archive = new AdmArchive(buf, () => closeSync(fd), (offset, length) => readFully(fd, buf, offset, length));
-    return archive;
+    const eocdAt = tailStart + eocd;
+    if (cdOffset + cdSize > eocdAt) throw new ArchiveError(`central directory (${cdSize} bytes at ${cdOffset}) overlaps its end record at ${eocdAt}`);
+    let records: Buffer = Buffer.alloc(cdSize);
+    readAt(fd, records, 0, cdSize, cdOffset);
+    let count = tail.readUInt16LE(eocd + 10); // EOCD: total number of entries
+    if (only) ({ records, count } = selectRecords(records, new Set(only)));
+    // [central directory][end record], the end record pointing at offset 0 and without its comment.
+    const end = Buffer.alloc(EOCD_SIZE);
+    tail.copy(end, 0, eocd, eocd + EOCD_SIZE);
+    end.writeUInt16LE(count, 8);
+    end.writeUInt16LE(count, 10);
+    end.writeUInt32LE(records.length, 12);
+    end.writeUInt32LE(0, 16);
+    end.writeUInt16LE(0, 20);
+    return new AdmArchive(Buffer.concat([records, end]), close, { fd, size });
   } catch (e) {
-    try { closeSync(fd); } catch { /* already closed */ }
+    try { close(); } catch { /* already closed */ }
     throw e;
   }
 }
 
-function readFully(fd: number, buf: Buffer, offset: number, length: number): void {
+const CENTRAL_SIGNATURE = 0x02014b50;
+const CENTRAL_HEADER_SIZE = 46;
+
+/** Keeps the central directory records whose names are in `names`, in one pass over the directory. */
+function selectRecords(cd: Buffer, names: ReadonlySet<string>): { records: Buffer; count: number } {
+  const kept: Buffer[] = [];
+  for (let p = 0; p + CENTRAL_HEADER_SIZE <= cd.length; ) {
+    if (cd.readUInt32LE(p) !== CENTRAL_SIGNATURE) throw new ArchiveError(`central directory is damaged at byte ${p} of ${cd.length}`);
+    // Central header: file name length (u16 at 28), extra field length (u16 at 30), comment length (u16 at 32).
+    const nameLen = cd.readUInt16LE(p + 28);
+    const next = p + CENTRAL_HEADER_SIZE + nameLen + cd.readUInt16LE(p + 30) + cd.readUInt16LE(p + 32);
+    if (next > cd.length) throw new ArchiveError(`central directory record at byte ${p} runs past the directory's end`);
+    if (names.has(cd.toString("utf8", p + CENTRAL_HEADER_SIZE, p + CENTRAL_HEADER_SIZE + nameLen))) kept.push(cd.subarray(p, next));
+    p = next;
+  }
+  return { records: Buffer.concat(kept), count: kept.length };
+}
+
+function readAt(fd: number, buf: Buffer, offset: number, length: number, position: number): void {
   let done = 0;
   while (done < length) {
-    const n = readSync(fd, buf, offset + done, length - done, offset + done);
-    if (n === 0) throw new ArchiveError(`file ended while reading ${length} bytes at offset ${offset}`);
+    const n = readSync(fd, buf, offset + done, length - done, position + done);
+    if (n === 0) throw new ArchiveError(`file ended while reading ${length} bytes at offset ${position}`);
     done += n;
   }
 }
 
-function findEocd(buf: Buffer, from: number): number {
-  for (let i = buf.length - EOCD_SIZE; i >= from; i--) {
+function findEocd(buf: Buffer): number {
+  for (let i = buf.length - EOCD_SIZE; i >= 0; i--) {
     if (buf[i] === 0x50 && buf[i + 1] === 0x4b && buf[i + 2] === 0x05 && buf[i + 3] === 0x06) return i;
   }
   return -1;
@@ -107,8 +146,8 @@ class AdmArchive implements ArchiveReader {
   constructor(
     private readonly buf: Buffer,
     private readonly onClose: () => void,
-    /** Fills [offset, offset+length) of `buf` from the file, for sparse buffers. */
-    private readonly fill?: (offset: number, length: number) => void,
+    /** When set, `buf` holds only the central directory and entry data is read from this file. */
+    private readonly file?: { fd: number; size: number },
   ) {
     try {
       this.zip = new AdmZip(buf, { readEntries: true } as never);
@@ -138,19 +177,9 @@ class AdmArchive implements ArchiveReader {
     if (i.method === "deflated" && i.compressedSize > 0 && i.size / i.compressedSize > LIMITS.MAX_COMPRESSION_RATIO) {
       throw new LimitError("MAX_COMPRESSION_RATIO", Math.round(i.size / i.compressedSize), LIMITS.MAX_COMPRESSION_RATIO, `${name} declares a compression ratio of`);
     }
-    if (this.fill) {
-      const at = e.header.offset;
-      if (at + LOCAL_HEADER_SIZE > this.buf.length) throw new ArchiveError(`${name}: local header offset ${at} is past the end of the file`);
-      this.fill(at, LOCAL_HEADER_SIZE);
-      // Local header: file name length (u16 at 26) and extra field length (u16 at 28) precede the data.
-      const nameLen = this.buf.readUInt16LE(at + 26);
-      const extraLen = this.buf.readUInt16LE(at + 28);
-      const end = Math.min(this.buf.length, at + LOCAL_HEADER_SIZE + nameLen + extraLen + i.compressedSize);
-      this.fill(at + LOCAL_HEADER_SIZE, end - at - LOCAL_HEADER_SIZE);
-    }
     let compressed: Buffer;
     try {
-      compressed = e.getCompressedData();
+      compressed = this.file ? readLocalEntry(this.file, e.header.offset, i, name) : e.getCompressedData();
     } catch (err) {
       throw admError(err, name);
     }
@@ -176,6 +205,19 @@ class AdmArchive implements ArchiveReader {
   close(): void {
     this.onClose();
   }
+}
+
+/** Reads an entry's compressed bytes from the file: local header (30 bytes, then name and extra), then data. */
+function readLocalEntry(file: { fd: number; size: number }, at: number, i: ArchiveEntryInfo, name: string): Buffer {
+  if (at + LOCAL_HEADER_SIZE > file.size) throw new ArchiveError(`${name}: local header offset ${at} is past the end of the file`);
+  const local = Buffer.alloc(LOCAL_HEADER_SIZE);
+  readAt(file.fd, local, 0, LOCAL_HEADER_SIZE, at);
+  if (local.readUInt32LE(0) !== 0x04034b50) throw new ArchiveError(`${name}: no local header signature at offset ${at}`);
+  const dataAt = at + LOCAL_HEADER_SIZE + local.readUInt16LE(26) + local.readUInt16LE(28); // name and extra lengths
+  if (dataAt + i.compressedSize > file.size) throw new ArchiveError(`${name}: ${i.compressedSize} bytes of data at ${dataAt} run past the end of the file`);
+  const data = Buffer.alloc(i.compressedSize);
+  readAt(file.fd, data, 0, i.compressedSize, dataAt);
+  return data;
 }
 
 function info(e: AdmEntry): ArchiveEntryInfo {

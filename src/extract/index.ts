@@ -49,7 +49,7 @@ export function readManifestFile(path: string): Manifest {
     const head = Buffer.alloc(64);
     const fd = readHead(path, head);
     const kind = detectKind(head.subarray(0, fd));
-    if (kind === "zip") return fromArchive(openArchiveFile(path));
+    if (kind === "zip") return fromArchive(openArchiveFile(path, [MANIFEST_ENTRY, RESOURCE_TABLE_ENTRY]));
     if (kind === "unknown") return fromBareBytes(head.subarray(0, fd), kind);
     if (st.size > LIMITS.MAX_MANIFEST_BYTES) throw new LimitError("MAX_MANIFEST_BYTES", st.size, LIMITS.MAX_MANIFEST_BYTES, "manifest file has a size in bytes of");
     return fromBareBytes(readFileSync(path), kind);

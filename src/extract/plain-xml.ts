@@ -5,10 +5,15 @@
  * Document type declarations are refused outright: a manifest never needs one, and refusing them
  * is the only sure way never to expand an entity bomb or fetch an external entity.
  */
-import xml2js from "xml2js";
+import { createRequire } from "node:module";
+import type * as Xml2js from "xml2js";
 import { LimitError, PlainXmlError } from "../errors.js";
 import { checkLimit } from "./binary/reader.js";
 import { adoptChild, type XmlAttribute, type XmlDocument, type XmlElement } from "./xml-tree.js";
+
+// Loaded on first use: most inputs are binary, and xml2js with its dependencies costs start-up time.
+let xml2js: typeof Xml2js | undefined;
+const loadXml2js = () => (xml2js ??= createRequire(import.meta.url)("xml2js") as typeof Xml2js);
 
 const XMLNS_URI = "http://www.w3.org/2000/xmlns/";
 const LINE_KEY = "\u0000line"; // cannot collide with a real attribute name
@@ -41,7 +46,7 @@ export function parsePlainXml(bytes: Uint8Array): XmlDocument {
   const lineStarts = [0];
   for (let i = text.indexOf("\n"); i !== -1; i = text.indexOf("\n", i + 1)) lineStarts.push(i + 1);
 
-  const parser = new xml2js.Parser({
+  const parser = new (loadXml2js().Parser)({
     xmlns: true,
     explicitChildren: true,
     preserveChildrenOrder: true,

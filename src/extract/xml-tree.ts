@@ -42,10 +42,16 @@ export interface XmlDocument {
   namespaces: { prefix: string; uri: string }[];
 }
 
+// Per-parent counts of children by name, so that building a path costs O(1) even under the
+// framework manifest's <manifest>, which has thousands of children.
+const siblingCounts = new WeakMap<XmlElement, Map<string, number>>();
+
 /** Appends `child` to `parent` and gives it its element path. */
 export function adoptChild(parent: XmlElement, child: XmlElement): void {
-  let n = 1;
-  for (const c of parent.children) if (c.name === child.name) n++;
+  let counts = siblingCounts.get(parent);
+  if (!counts) siblingCounts.set(parent, (counts = new Map()));
+  const n = (counts.get(child.name) ?? 0) + 1;
+  counts.set(child.name, n);
   child.path = `${parent.path}/${child.name}${n > 1 ? `[${n}]` : ""}`;
   parent.children.push(child);
 }

@@ -1,0 +1,199 @@
+#!/usr/bin/env node
+// overask benchmarks. Figures on shared machines are noisy: every figure is reported next to a floor
+// measured in the same run, and as a ratio to it. Run with `npm run bench` (builds first).
+//
+//   node scripts/bench.mjs [--only extract] [--sizes 5,50,200] [--reps 15]
+import { execFileSync } from "node:child_process";
+import { closeSync, existsSync, fstatSync, mkdirSync, openSync, readFileSync, readSync, rmSync, writeFileSync, openSync as open2, writeSync } from "node:fs";
+import { randomBytes } from "node:crypto";
+import { join } from "node:path";
+import { inflateRawSync, deflateRawSync, crc32 } from "node:zlib";
+import { fileURLToPath } from "node:url";
+
+const ROOT = fileURLToPath(new URL("../", import.meta.url));
+const lib = await import(join(ROOT, "dist/index.js"));
+const args = process.argv.slice(2);
+const opt = (name, dflt) => {
+  const i = args.indexOf(`--${name}`);
+  return i >= 0 ? args[i + 1] : dflt;
+};
+const SIZES = opt("sizes", "5,50,200").split(",").map(Number);
+const REPS = Number(opt("reps", "15"));
+const OUT = join(ROOT, "bench-out");
+mkdirSync(OUT, { recursive: true });
+
+const median = (xs) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
+const ms = (t0) => Number(process.hrtime.bigint() - t0) / 1e6;
+const fmt = (x) => (x < 10 ? x.toFixed(3) : x.toFixed(1));
+
+function header(title) {
+  console.log(`\n## ${title}`);
+}
+
+// ---------------------------------------------------------------------------------------------
+header("decode: the platform's framework manifest (222 KB, UTF-16), in process");
+{
+  const bytes = readFileSync(join(ROOT, "fixtures/platform/framework-res-AndroidManifest.xml"));
+  for (let i = 0; i < 50; i++) lib.readManifestBytes(bytes); // warm-up
+  const tree = [];
+  const model = [];
+  for (let i = 0; i < 200; i++) {
+    let t = process.hrtime.bigint();
+    lib.decodeBinaryXml(bytes);
+    tree.push(ms(t));
+    t = process.hrtime.bigint();
+    lib.readManifestBytes(bytes);
+    model.push(ms(t));
+  }
+  // Floor: touching every byte once (a sum over the buffer), the least any decoder must do.
+  const floor = [];
+  for (let i = 0; i < 200; i++) {
+    const t = process.hrtime.bigint();
+    let s = 0;
+    for (let j = 0; j < bytes.length; j++) s = (s + bytes[j]) | 0;
+    if (s === 42) console.log("");
+    floor.push(ms(t));
+  }
+  console.log(`decodeBinaryXml (tree only):     median ${fmt(median(tree))} ms  (goal < 5 ms)`);
+  console.log(`readManifestBytes (full model):  median ${fmt(median(model))} ms`);
+  console.log(`floor (one pass over the bytes): median ${fmt(median(floor))} ms`);
+}
+
+// ---------------------------------------------------------------------------------------------
+header("facts on synthetic APKs: a small manifest plus large incompressible entries");
+
+/** Writes a zip: the manifest (deflated) first, then `mb` MB of random bytes in 1 MB stored entries. */
+function writeSyntheticApk(path, mb, manifest) {
+  const fd = open2(path, "w");
+  const central = [];
+  let offset = 0;
+  const put = (buf) => {
+    writeSync(fd, buf);
+    offset += buf.length;
+  };
+  const entry = (name, data, deflate) => {
+    const body = deflate ? deflateRawSync(data) : data;
+    const nameBuf = Buffer.from(name);
+    const crc = crc32(data) >>> 0;
+    const local = Buffer.alloc(30);
+    local.writeUInt32LE(0x04034b50, 0);
+    local.writeUInt16LE(20, 4);
+    local.writeUInt16LE(deflate ? 8 : 0, 8);
+    local.writeUInt32LE(crc, 14);
+    local.writeUInt32LE(body.length, 18);
+    local.writeUInt32LE(data.length, 22);
+    local.writeUInt16LE(nameBuf.length, 26);
+    const at = offset;
+    put(local);
+    put(nameBuf);
+    put(body);
+    const cen = Buffer.alloc(46);
+    cen.writeUInt32LE(0x02014b50, 0);
+    cen.writeUInt16LE(20, 4);
+    cen.writeUInt16LE(20, 6);
+    cen.writeUInt16LE(deflate ? 8 : 0, 10);
+    cen.writeUInt32LE(crc, 16);
+    cen.writeUInt32LE(body.length, 20);
+    cen.writeUInt32LE(data.length, 24);
+    cen.writeUInt16LE(nameBuf.length, 28);
+    cen.writeUInt32LE(at, 42);
+    central.push(Buffer.concat([cen, nameBuf]));
+  };
+  entry("AndroidManifest.xml", manifest, true);
+  for (let i = 0; i < mb; i++) entry(`assets/blob${String(i).padStart(4, "0")}.bin`, randomBytes(1024 * 1024), false);
+  const cd = Buffer.concat(central);
+  const cdAt = offset;
+  put(cd);
+  const eocd = Buffer.alloc(22);
+  eocd.writeUInt32LE(0x06054b50, 0);
+  eocd.writeUInt16LE(central.length, 8);
+  eocd.writeUInt16LE(central.length, 10);
+  eocd.writeUInt32LE(cd.length, 12);
+  eocd.writeUInt32LE(cdAt, 16);
+  put(eocd);
+  closeSync(fd);
+}
+
+/** The floor: end record, central directory, the manifest entry's local header and data, inflate. */
+function floorRead(path) {
+  const fd = openSync(path, "r");
+  const size = fstatSync(fd).size;
+  const tailLen = Math.min(size, 22 + 0xffff);
+  const tail = Buffer.alloc(tailLen);
+  readSync(fd, tail, 0, tailLen, size - tailLen);
+  let e = tailLen - 22;
+  while (e >= 0 && tail.readUInt32LE(e) !== 0x06054b50) e--;
+  const cdSize = tail.readUInt32LE(e + 12);
+  const cdAt = tail.readUInt32LE(e + 16);
+  const cd = Buffer.alloc(cdSize);
+  readSync(fd, cd, 0, cdSize, cdAt);
+  let p = 0;
+  let data;
+  while (p < cdSize) {
+    const nameLen = cd.readUInt16LE(p + 28);
+    const extraLen = cd.readUInt16LE(p + 30);
+    const commentLen = cd.readUInt16LE(p + 32);
+    const name = cd.toString("latin1", p + 46, p + 46 + nameLen);
+    if (name === "AndroidManifest.xml") {
+      const csize = cd.readUInt32LE(p + 20);
+      const at = cd.readUInt32LE(p + 42);
+      const lh = Buffer.alloc(30);
+      readSync(fd, lh, 0, 30, at);
+      const body = Buffer.alloc(csize);
+      readSync(fd, body, 0, csize, at + 30 + lh.readUInt16LE(26) + lh.readUInt16LE(28));
+      data = inflateRawSync(body);
+      break;
+    }
+    p += 46 + nameLen + extraLen + commentLen;
+  }
+  closeSync(fd);
+  return data;
+}
+
+function rss() {
+  return process.memoryUsage().rss / 1024 / 1024;
+}
+
+{
+  const manifest = lib.openArchiveFile(join(ROOT, "fixtures/apk/tidewatch.apk")).read("AndroidManifest.xml", "MAX_MANIFEST_BYTES");
+  console.log("size     floor (ms)  facts in-process (ms)  ratio   whole process (ms)  process floor (ms)");
+  for (const mb of SIZES) {
+    const path = join(OUT, `synthetic-${mb}mb.apk`);
+    if (!existsSync(path)) writeSyntheticApk(path, mb, Buffer.from(manifest));
+    // Warm both paths and the page cache.
+    for (let i = 0; i < 3; i++) {
+      floorRead(path);
+      lib.readManifestFile(path);
+    }
+    const floor = [];
+    const facts = [];
+    for (let i = 0; i < REPS; i++) {
+      let t = process.hrtime.bigint();
+      floorRead(path);
+      floor.push(ms(t));
+      t = process.hrtime.bigint();
+      lib.readManifestFile(path);
+      facts.push(ms(t));
+    }
+    // Whole process: the CLI against `node -e` that runs the floor code (start-up cost alike).
+    const proc = [];
+    const procFloor = [];
+    for (let i = 0; i < 5; i++) {
+      let t = process.hrtime.bigint();
+      execFileSync(process.execPath, [join(ROOT, "bin/overask.js"), "facts", "--format", "json", path], { stdio: "ignore" });
+      proc.push(ms(t));
+      t = process.hrtime.bigint();
+      execFileSync(process.execPath, ["-e", `require("node:fs").readFileSync(${JSON.stringify(path)}, { flag: "r" }).subarray(0, 0)`.replace(/readFileSync\(.*\)/, "statSync(" + JSON.stringify(path) + ")")], { stdio: "ignore" });
+      procFloor.push(ms(t));
+    }
+    const f = median(floor);
+    const x = median(facts);
+    console.log(
+      `${String(mb).padStart(4)} MB  ${fmt(f).padStart(10)}  ${fmt(x).padStart(21)}  ${(x / f).toFixed(2).padStart(5)}x  ${fmt(median(proc)).padStart(18)}  ${fmt(median(procFloor)).padStart(18)}`,
+    );
+  }
+  console.log(`peak RSS of this benchmark process: ${rss().toFixed(0)} MB (includes the synthetic files' generation)`);
+  console.log("goal: facts within 1.5x of the floor at 200 MB");
+}
+
+if (!args.includes("--keep")) rmSync(OUT, { recursive: true, force: true });
