@@ -46,6 +46,16 @@ export class ManifestError extends InputError {
   override name = "ManifestError";
 }
 
+/** A corpus cannot be read, or too much of it was rejected. */
+export class CorpusError extends InputError {
+  override name = "CorpusError";
+}
+
+/** A baseline file cannot be used (wrong schema version, damaged, inconsistent counts). */
+export class BaselineError extends InputError {
+  override name = "BaselineError";
+}
+
 /** A length, count, size or depth read from the input exceeds a named limit. */
 export class LimitError extends InputError {
   override name = "LimitError";

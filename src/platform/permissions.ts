@@ -76,12 +76,26 @@ export function platformPermission(name: string): PlatformPermission | undefined
   return platformPermissions().get(name);
 }
 
+let bareNames: Map<string, string | null> | undefined;
+
 /**
- * Normalizes a permission name: a bare platform name (`SEND_SMS`) becomes `android.permission.SEND_SMS`
- * when the platform defines it; any other name is kept as written.
+ * Normalizes a permission name: a bare platform name becomes the full one when the platform defines
+ * exactly one permission of that name (`SEND_SMS` → `android.permission.SEND_SMS`, `ADD_VOICEMAIL` →
+ * `com.android.voicemail.permission.ADD_VOICEMAIL`); any other name is kept as written.
  */
 export function normalizePermissionName(name: string): string {
   const trimmed = name.trim();
-  if (!trimmed.includes(".") && platformPermissions().has(`android.permission.${trimmed}`)) return `android.permission.${trimmed}`;
-  return trimmed;
+  if (trimmed.includes(".")) return trimmed;
+  if (!bareNames) {
+    bareNames = new Map();
+    for (const full of platformPermissions().keys()) {
+      const bare = full.slice(full.lastIndexOf(".") + 1);
+      // android.permission.* wins over other namespaces; other clashes make the bare name ambiguous.
+      const prior = bareNames.get(bare);
+      if (prior === undefined) bareNames.set(bare, full);
+      else if (full.startsWith("android.permission.")) bareNames.set(bare, full);
+      else if (prior !== null && !prior.startsWith("android.permission.")) bareNames.set(bare, null);
+    }
+  }
+  return bareNames.get(trimmed) ?? trimmed;
 }

@@ -1,0 +1,153 @@
+/**
+ * The baseline file: JSON with a schema version, holding counts (so that baselines merge exactly),
+ * the parameters that turn counts into rates, provenance, and the risk model with its evaluation.
+ * Written atomically: a temporary file in the same folder, then a rename.
+ */
+import { closeSync, fsyncSync, openSync, readFileSync, renameSync, unlinkSync, writeSync } from "node:fs";
+import { basename, dirname, join } from "node:path";
+import { BaselineError } from "../errors.js";
+import { PLATFORM_TABLE_VERSION } from "../platform/permissions.js";
+import { TOOL_VERSION } from "../version.js";
+import { CountTable, type SerializedCounts } from "./counts.js";
+import type { RiskModel } from "./model.js";
+import { Baseline, type RateParameters } from "./rates.js";
+
+export const BASELINE_FORMAT = "overask-baseline";
+export const BASELINE_SCHEMA_VERSION = 1;
+
+export interface InputProvenance {
+  path: string;
+  role: "frequencies" | "labels" | "frequencies+labels";
+  format: string;
+  licence?: string;
+  rows: number;
+  accepted: number;
+  rejected: number;
+  duplicateIds: number;
+  labeled: number;
+  positives: number;
+}
+
+export interface StoredModel extends RiskModel {
+  /** The labeled corpus the model learned from, named in every risk statement. */
+  corpus: string;
+  corpusLicence?: string;
+  /** `category`: features against each app's category; `pooled`: the labeled corpus had no categories. */
+  featureBasis: "category" | "pooled";
+  /** Permissions the labeled corpus could record; features count only these. Absent: any permission. */
+  vocabulary?: string[];
+  /** Present when the model was trained on a seeded stratified sample of the labeled rows. */
+  sample?: { of: number; taken: number; seed: number };
+}
+
+export interface BaselineFile {
+  format: typeof BASELINE_FORMAT;
+  schemaVersion: typeof BASELINE_SCHEMA_VERSION;
+  createdAt: string;
+  tool: { name: "overask"; version: string };
+  platformTable: string;
+  parameters: RateParameters & { aliases: Record<string, string> };
+  provenance: { inputs: InputProvenance[]; notes: string[] };
+  counts: SerializedCounts;
+  model: StoredModel | null;
+  caution: string;
+}
+
+export function cautionFor(corpus: string | undefined): string {
+  return corpus
+    ? `Risk figures are statistical associations with the apps flagged in ${corpus}, learned from that corpus; they are not evidence of intent or harm. Store and platform policy decide.`
+    : "This baseline has no risk model: it gives category frequencies only.";
+}
+
+export function newBaselineFile(parts: Omit<BaselineFile, "format" | "schemaVersion" | "createdAt" | "tool" | "platformTable" | "caution">, createdAt = new Date()): BaselineFile {
+  return {
+    format: BASELINE_FORMAT,
+    schemaVersion: BASELINE_SCHEMA_VERSION,
+    createdAt: createdAt.toISOString(),
+    tool: { name: "overask", version: TOOL_VERSION },
+    platformTable: PLATFORM_TABLE_VERSION,
+    ...parts,
+    caution: cautionFor(parts.model?.corpus),
+  };
+}
+
+/** Reads and checks a baseline file. */
+export function readBaselineFile(path: string): BaselineFile {
+  let text: string;
+  try {
+    text = readFileSync(path, "utf8");
+  } catch (e) {
+    const code = (e as { code?: string }).code;
+    throw new BaselineError(code === "ENOENT" ? "no such file" : `cannot be read (${(e as Error).message})`, { file: path });
+  }
+  let json: Partial<BaselineFile>;
+  try {
+    json = JSON.parse(text);
+  } catch {
+    throw new BaselineError("is not JSON (damaged, or not a baseline file)", { file: path });
+  }
+  if (json?.format !== BASELINE_FORMAT) throw new BaselineError("is not an overask baseline file", { file: path });
+  if (json.schemaVersion !== BASELINE_SCHEMA_VERSION) {
+    throw new BaselineError(`has schema version ${json.schemaVersion}; this overask (${TOOL_VERSION}) reads version ${BASELINE_SCHEMA_VERSION}: relearn it with this version`, { file: path });
+  }
+  if (!json.counts?.pooled || typeof json.counts.pooled.apps !== "number" || !json.parameters) throw new BaselineError("lacks counts or parameters", { file: path });
+  return json as BaselineFile;
+}
+
+/** The rates view of a baseline file. */
+export function baselineOf(file: BaselineFile): Baseline {
+  const { aliases: _aliases, ...parameters } = file.parameters;
+  return new Baseline(CountTable.fromJSON(file.counts), parameters);
+}
+
+/** Serializes a baseline file the same way every time (stable key order from the writers). */
+export function serializeBaseline(file: BaselineFile): string {
+  return `${JSON.stringify(file, null, 1)}\n`;
+}
+
+/** Writes `text` to `path` atomically: a temporary file beside it, flushed, then renamed over it. */
+export function writeFileAtomic(path: string, text: string): void {
+  const tmp = join(dirname(path), `.${basename(path)}.${process.pid}.${Date.now().toString(36)}.tmp`);
+  let fd: number | undefined;
+  try {
+    fd = openSync(tmp, "wx", 0o644);
+    writeSync(fd, text);
+    fsyncSync(fd);
+    closeSync(fd);
+    fd = undefined;
+    renameSync(tmp, path);
+  } catch (e) {
+    if (fd !== undefined) closeSync(fd);
+    try { unlinkSync(tmp); } catch { /* never created */ }
+    const code = (e as { code?: string }).code;
+    const why = code === "ENOSPC" ? "the disk is full" : code === "EACCES" || code === "EPERM" || code === "EROFS" ? "the folder is not writable" : code === "ENOENT" ? "the folder does not exist" : (e as Error).message;
+    throw new BaselineError(`cannot be written: ${why}`, { file: path });
+  }
+}
+
+/**
+ * Folds baselines: the counts add up exactly, as if learned on all corpora at once. Rate parameters
+ * must agree. Risk models cannot be merged (their features depend on the counts), so the result has none.
+ */
+export function foldBaselines(files: { path: string; file: BaselineFile }[], createdAt = new Date()): BaselineFile {
+  if (files.length === 0) throw new BaselineError("nothing to fold");
+  const first = files[0];
+  const table = CountTable.fromJSON(first.file.counts);
+  for (const { path, file } of files.slice(1)) {
+    if (JSON.stringify(file.parameters) !== JSON.stringify(first.file.parameters)) {
+      throw new BaselineError(`its parameters differ from ${first.path}'s; learn both with the same --prior, --min-support, --confidence, --uncommon-below and --alias`, { file: path });
+    }
+    table.merge(CountTable.fromJSON(file.counts));
+  }
+  const notes = files.flatMap((f) => f.file.provenance.notes);
+  if (files.some((f) => f.file.model)) notes.push("folded from baselines with risk models; models do not merge, so this baseline has none (learn one on the combined corpora)");
+  return newBaselineFile(
+    {
+      parameters: first.file.parameters,
+      provenance: { inputs: files.flatMap((f) => f.file.provenance.inputs), notes },
+      counts: table.toJSON(),
+      model: null,
+    },
+    createdAt,
+  );
+}

@@ -1,0 +1,76 @@
+/**
+ * Wide binary CSV corpora: a header row, one 0/1 column per permission (bare platform names allowed),
+ * and optional label, id and category columns.
+ */
+import { readFileSync } from "node:fs";
+import { CorpusError } from "../../errors.js";
+import { normalizePermissionName } from "../../platform/permissions.js";
+import { Ledger, lines } from "./common.js";
+import { splitCsvLine } from "./csv.js";
+import type { CorpusOptions, CorpusRecord } from "./types.js";
+
+/** Reads the permission column names from a column file: first CSV field, filtered by the second when asked. */
+export function readColumnList(path: string, kind?: string): Set<string> {
+  const out = new Set<string>();
+  for (const text of readFileSync(path, "utf8").split(/\r?\n/)) {
+    const f = splitCsvLine(text);
+    if (!f || f[0].trim() === "") continue;
+    if (kind === undefined || (f[1] ?? "").trim() === kind) out.add(f[0].trim());
+  }
+  if (out.size === 0) throw new CorpusError(`no columns${kind ? ` of kind "${kind}"` : ""} listed`, { file: path });
+  return out;
+}
+
+export async function* readWideCsv(path: string, options: CorpusOptions, ledger: Ledger): AsyncGenerator<CorpusRecord> {
+  const labelColumn = options.labelField ?? "label";
+  const idColumn = options.idField;
+  const categoryColumn = options.categoryField;
+  const wanted = options.columnsFrom ? readColumnList(options.columnsFrom, options.columnsKind) : undefined;
+  let header: string[] | undefined;
+  let permissionIdx: number[] = [];
+  let labelIdx = -1;
+  let idIdx = -1;
+  let categoryIdx = -1;
+  for await (const { text, line } of lines(path, options.onProgress)) {
+    if (!header) {
+      header = splitCsvLine(text.replace(/^\uFEFF/, ""))?.map((h) => h.trim());
+      if (!header) throw new CorpusError("header row has an unterminated quote", { file: path });
+      labelIdx = header.indexOf(labelColumn);
+      idIdx = idColumn ? header.indexOf(idColumn) : -1;
+      categoryIdx = categoryColumn ? header.indexOf(categoryColumn) : -1;
+      if (idColumn && idIdx < 0) throw new CorpusError(`no id column "${idColumn}" in the header`, { file: path });
+      if (categoryColumn && categoryIdx < 0) throw new CorpusError(`no category column "${categoryColumn}" in the header`, { file: path });
+      const special = new Set([labelIdx, idIdx, categoryIdx]);
+      permissionIdx = header.map((_, i) => i).filter((i) => !special.has(i) && (!wanted || wanted.has(header![i])));
+      if (wanted) {
+        const missing = [...wanted].filter((w) => !header!.includes(w));
+        if (missing.length) throw new CorpusError(`${missing.length} listed permission columns are not in the header (first: ${missing[0]})`, { file: path });
+      }
+      if (permissionIdx.length === 0) throw new CorpusError("no permission columns", { file: path });
+      ledger.report.vocabulary = [...new Set(permissionIdx.map((i) => normalizePermissionName(header![i])))].sort();
+      continue;
+    }
+    if (text.trim() === "") continue;
+    ledger.report.rows++;
+    const f = splitCsvLine(text);
+    if (!f || f.length !== header.length) {
+      ledger.reject(line, f ? `${f.length} columns, the header has ${header.length}` : "unterminated quote");
+      continue;
+    }
+    const perms: string[] = [];
+    let bad: string | undefined;
+    for (const i of permissionIdx) {
+      const v = f[i].trim();
+      if (v === "1") perms.push(header[i]);
+      else if (v !== "0") { bad = `column ${header[i]} holds "${v}", not 0 or 1`; break; }
+    }
+    if (bad) {
+      ledger.reject(line, bad);
+      continue;
+    }
+    const id = idIdx >= 0 ? f[idIdx] : `line ${line}`;
+    const record = ledger.accept(line, id, categoryIdx >= 0 ? f[categoryIdx].trim() : undefined, labelIdx >= 0 ? f[labelIdx] : undefined, perms);
+    if (record) yield record;
+  }
+  if (!header) throw new CorpusError("is empty", { file: path });
+}

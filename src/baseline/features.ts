@@ -1,0 +1,75 @@
+/**
+ * The risk model's features of one app, computed against its category's baseline. Every feature is a
+ * sum of non-negative per-permission terms, so adding a permission can never lower a feature; with
+ * non-negative coefficients, removing a permission can never raise the risk (the monotonicity property
+ * argued for by Peng et al., "Using probabilistic generative models for ranking risks of Android apps",
+ * CCS 2012).
+ */
+import { platformPermission } from "../platform/permissions.js";
+import type { Baseline, Exclusion } from "./rates.js";
+
+/**
+ * The four counts split the requested permissions into disjoint groups (common or uncommon for the
+ * category, sensitive or not), which keeps them far less collinear than nested counts would be.
+ */
+export const FEATURE_NAMES = ["commonOther", "commonSensitive", "uncommonOther", "uncommonSensitive", "surprisal"] as const;
+export type FeatureName = (typeof FEATURE_NAMES)[number];
+
+export const FEATURE_DESCRIPTIONS: Record<FeatureName, string> = {
+  commonOther: "requested permissions common for the category, not sensitive",
+  commonSensitive: "requested permissions common for the category and sensitive",
+  uncommonOther: "requested permissions uncommon for the category, not sensitive",
+  uncommonSensitive: "requested permissions uncommon for the category and sensitive (dangerous, app-op or restricted)",
+  surprisal: "summed surprisal, −ln(rate), of the requested permissions",
+};
+
+/** Dangerous, app-op, or hard/soft-restricted on the platform (API 34 table). */
+export function isSensitive(permission: string): boolean {
+  const p = platformPermission(permission);
+  if (!p) return false;
+  return p.base === "dangerous" || p.flags.includes("appop") || p.hardRestricted || p.softRestricted;
+}
+
+export function isDangerous(permission: string): boolean {
+  return platformPermission(permission)?.base === "dangerous";
+}
+
+/** Per-permission terms, so that explanations and what-if figures use the same numbers as the score. */
+export interface PermissionTerms {
+  permission: string;
+  terms: Record<FeatureName, number>;
+}
+
+export function permissionTerms(baseline: Baseline, category: string | undefined, permission: string, exclude?: Exclusion): PermissionTerms {
+  const r = baseline.rate(category, permission, exclude);
+  const sensitive = isSensitive(permission);
+  return {
+    permission,
+    terms: {
+      commonOther: !r.uncommon && !sensitive ? 1 : 0,
+      commonSensitive: !r.uncommon && sensitive ? 1 : 0,
+      uncommonOther: r.uncommon && !sensitive ? 1 : 0,
+      uncommonSensitive: r.uncommon && sensitive ? 1 : 0,
+      surprisal: -Math.log(r.rate),
+    },
+  };
+}
+
+/**
+ * The feature vector (in FEATURE_NAMES order) of an app. `vocabulary`, when given, limits the
+ * permissions counted to those the model's training corpus could have recorded.
+ */
+export function appFeatures(
+  baseline: Baseline,
+  category: string | undefined,
+  permissions: Iterable<string>,
+  options: { vocabulary?: ReadonlySet<string>; exclude?: Exclusion } = {},
+): number[] {
+  const sums = new Array<number>(FEATURE_NAMES.length).fill(0);
+  for (const p of permissions) {
+    if (options.vocabulary && !options.vocabulary.has(p)) continue;
+    const t = permissionTerms(baseline, category, p, options.exclude).terms;
+    for (let i = 0; i < FEATURE_NAMES.length; i++) sums[i] += t[FEATURE_NAMES[i]];
+  }
+  return sums;
+}
