@@ -56,6 +56,11 @@ export class BaselineError extends InputError {
   override name = "BaselineError";
 }
 
+/** An output file cannot be written (full disk, read-only or missing folder). */
+export class OutputError extends InputError {
+  override name = "OutputError";
+}
+
 /** A length, count, size or depth read from the input exceeds a named limit. */
 export class LimitError extends InputError {
   override name = "LimitError";

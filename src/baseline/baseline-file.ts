@@ -5,7 +5,7 @@
  */
 import { closeSync, fsyncSync, openSync, readFileSync, renameSync, unlinkSync, writeSync } from "node:fs";
 import { basename, dirname, join } from "node:path";
-import { BaselineError } from "../errors.js";
+import { BaselineError, OutputError } from "../errors.js";
 import { PLATFORM_TABLE_VERSION } from "../platform/permissions.js";
 import { TOOL_VERSION } from "../version.js";
 import { CountTable, type SerializedCounts } from "./counts.js";
@@ -121,7 +121,7 @@ export function writeFileAtomic(path: string, text: string): void {
     try { unlinkSync(tmp); } catch { /* never created */ }
     const code = (e as { code?: string }).code;
     const why = code === "ENOSPC" ? "the disk is full" : code === "EACCES" || code === "EPERM" || code === "EROFS" ? "the folder is not writable" : code === "ENOENT" ? "the folder does not exist" : (e as Error).message;
-    throw new BaselineError(`cannot be written: ${why}`, { file: path });
+    throw new OutputError(`cannot be written: ${why}`, { file: path });
   }
 }
 

@@ -16,6 +16,8 @@ export interface LearnOptions {
   frequencies: { path: string; options: CorpusOptions; licence?: string }[];
   /** A separate labeled corpus for the risk model; without it, labels in the frequency corpora are used. */
   labels?: { path: string; options: CorpusOptions; licence?: string };
+  /** How risk statements name the labeled corpus (default: its path). */
+  labelsName?: string;
   parameters?: Partial<RateParameters>;
   aliases?: Map<string, string>;
   /** The run fails when a corpus rejects more than this share of its rows. */
@@ -160,14 +162,14 @@ export async function learn(options: LearnOptions): Promise<LearnResult> {
     });
     model = {
       ...trained,
-      corpus: labelReport ? labelReport.source : "the labeled corpus",
+      corpus: options.labelsName ?? labelReport?.source ?? "the labeled corpus",
       ...(labelLicence ? { corpusLicence: labelLicence } : {}),
       featureBasis: hasCategories ? "category" : "pooled",
       ...(vocabulary ? { vocabulary: [...vocabulary].sort() } : {}),
       ...(of > picked.length ? { sample: { of, taken: picked.length, seed } } : {}),
     };
   }
-  const notes: string[] = [];
+  const notes: string[] = reports.flatMap((r) => r.notes.map((n) => `${r.source}: ${n}`));
   if (noModel) notes.push(noModel);
   if (model?.sample) notes.push(`the model was trained on a seeded stratified sample of ${model.sample.taken} of ${model.sample.of} labeled rows`);
   for (const d of model?.dropped ?? []) notes.push(`feature ${d.feature} was dropped: its fitted coefficient was negative (${d.coefficient.toFixed(4)})`);

@@ -10,4 +10,6 @@ export const EXIT = {
   INPUT: 3,
   /** A bug in overask; rerun with --debug and report the stack trace. */
   INTERNAL: 4,
+  /** An output could not be written; anything already written is left as it was. */
+  OUTPUT: 5,
 } as const;

@@ -9,7 +9,7 @@ import { pickStyle } from "../report/style.js";
 import { TOOL_VERSION } from "../version.js";
 import { EXIT } from "./exit-codes.js";
 
-interface Io {
+export interface Io {
   stdout: { write(s: string): unknown; isTTY?: boolean };
   stderr: { write(s: string): unknown; isTTY?: boolean };
   env: NodeJS.ProcessEnv;
@@ -54,9 +54,58 @@ export async function run(argv: string[], io: Io = defaultIo): Promise<number> {
       io.stdout.write(opts.format === "json" ? factsToJson(results) : factsToText(results.filter((r) => r.manifest), pickStyle(io.stdout, io.env)));
     });
 
+  const collect = (v: string, prev: string[] = []) => [...prev, v];
+  program
+    .command("learn")
+    .description("learn category baselines (and a risk model, from labeled apps) from corpora")
+    .argument("<corpus...>", "corpora for category frequencies: JSONL, wide 0/1 CSV, or an index CSV of APKs/manifests (file,category[,label])")
+    .requiredOption("-o, --output <file>", "baseline file to write")
+    .addOption(new Option("--format <format>", "corpus format (default: told from the content)").choices(["jsonl", "wide-csv", "files"]))
+    .option("--id-field <name>", "field or column with the app id", undefined)
+    .option("--category-field <name>", "field or column with the category")
+    .option("--permissions-field <name>", "JSONL field with the list of permissions")
+    .option("--label-field <name>", "field (JSONL) or column (CSV) with the label")
+    .option("--label-column <name>", "the same as --label-field")
+    .option("--positive <value>", "label value meaning flagged (repeatable; default 1 and true)", collect)
+    .option("--columns-from <file>", "wide CSV: file listing the permission columns (first CSV column)")
+    .option("--columns-kind <kind>", "wide CSV: keep only columns whose second field in --columns-from is this")
+    .option("--licence <text>", "licence of the frequency corpora, recorded in the baseline")
+    .option("--labels <file>", "separate labeled corpus for the risk model (same field options)")
+    .option("--labels-licence <text>", "licence of the labeled corpus")
+    .option("--labels-name <text>", "how risk statements name the labeled corpus (default: its path)")
+    .option("--alias <from=to>", "category alias, e.g. Educational=Education (repeatable)", collect)
+    .addOption(new Option("--prior <method>", "shrinkage toward the pooled rate").choices(["fixed", "empirical-bayes"]).default("fixed"))
+    .option("--prior-strength <n>", "fixed: pooled pseudo-apps per category; empirical-bayes: the cap", "10")
+    .option("--confidence <level>", "confidence level of the Wilson intervals", "0.95")
+    .option("--min-support <n>", "categories with fewer apps use the pooled baseline", "30")
+    .option("--uncommon-below <rate>", "uncommon: the interval's upper end is below this rate", "0.05")
+    .option("--seed <n>", "seed for sampling and cross-validation folds", "1")
+    .option("--folds <k>", "cross-validation folds", "5")
+    .option("--max-train-rows <n>", "train on a seeded stratified sample above this many labeled rows", "5000")
+    .option("--reject-limit <share>", "fail when a corpus rejects more than this share of its rows", "0.05")
+    .option("--rejects <file>", "write every rejected row (file, line, reason) to this file")
+    .action(async (corpora: string[], o: Record<string, string | string[] | undefined>) => {
+      const { learnCommand } = await import("./learn-command.js");
+      exitCode = await learnCommand(corpora, o, io);
+    });
+
+  program
+    .command("fold")
+    .description("add up baselines learned on separate corpora (counts merge exactly; risk models do not)")
+    .argument("<baseline...>", "baseline files")
+    .requiredOption("-o, --output <file>", "baseline file to write")
+    .action(async (files: string[], o: { output: string }) => {
+      const { foldCommand } = await import("./learn-command.js");
+      exitCode = await foldCommand(files, o.output, io);
+    });
+
   try {
     await program.parseAsync(argv, { from: "user" });
   } catch (e) {
+    if (e instanceof Error && e.name === "UsageError") {
+      io.stderr.write(`overask: ${e.message}\n`);
+      return EXIT.USAGE;
+    }
     if (e instanceof CommanderError) {
       // --help and --version end here too, with code 0.
       return e.exitCode === 0 ? EXIT.OK : EXIT.USAGE;
@@ -64,7 +113,7 @@ export async function run(argv: string[], io: Io = defaultIo): Promise<number> {
     if (e instanceof InputError) {
       io.stderr.write(`overask: ${e.describe()}\n`);
       if (debug && e.stack) io.stderr.write(`${e.stack}\n`);
-      return EXIT.INPUT;
+      return e.name === "OutputError" ? EXIT.OUTPUT : EXIT.INPUT;
     }
     io.stderr.write(`overask: internal error: ${(e as Error)?.message ?? String(e)}${debug ? "" : " (rerun with --debug for details)"}\n`);
     if (debug && e instanceof Error && e.stack) io.stderr.write(`${e.stack}\n`);

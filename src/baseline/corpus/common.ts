@@ -62,6 +62,7 @@ export class Ledger {
       duplicatePermissions: 0,
       labeled: 0,
       positives: 0,
+      notes: [],
     };
     this.positive = new Set((options.positive ?? ["1", "true"]).map((v) => v.toLowerCase()));
   }

@@ -35,6 +35,8 @@ export interface CorpusReport {
   duplicatePermissions: number;
   labeled: number;
   positives: number;
+  /** Things the reader noticed about the corpus as a whole (a named column it does not have, …). */
+  notes: string[];
   /** Wide CSV: every permission the corpus can record (its normalized permission columns). */
   vocabulary?: string[];
 }

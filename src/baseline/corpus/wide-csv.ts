@@ -38,8 +38,10 @@ export async function* readWideCsv(path: string, options: CorpusOptions, ledger:
       labelIdx = header.indexOf(labelColumn);
       idIdx = idColumn ? header.indexOf(idColumn) : -1;
       categoryIdx = categoryColumn ? header.indexOf(categoryColumn) : -1;
-      if (idColumn && idIdx < 0) throw new CorpusError(`no id column "${idColumn}" in the header`, { file: path });
-      if (categoryColumn && categoryIdx < 0) throw new CorpusError(`no category column "${categoryColumn}" in the header`, { file: path });
+      // Field options are shared by all corpora of a run; a column this corpus lacks is noted, not fatal.
+      if (idColumn && idIdx < 0) ledger.report.notes.push(`no id column "${idColumn}": rows are identified by line number`);
+      if (categoryColumn && categoryIdx < 0) ledger.report.notes.push(`no category column "${categoryColumn}"`);
+      if (labelIdx < 0) ledger.report.notes.push(`no label column "${labelColumn}"`);
       const special = new Set([labelIdx, idIdx, categoryIdx]);
       permissionIdx = header.map((_, i) => i).filter((i) => !special.has(i) && (!wanted || wanted.has(header![i])));
       if (wanted) {

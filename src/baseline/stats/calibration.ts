@@ -1,7 +1,8 @@
 /**
  * Calibration table by quantile bins of the predicted probability (deciles by default): rows sorted by
- * prediction are cut into `bins` groups of (nearly) equal size; each bin reports its prediction range,
- * mean prediction, observed positive rate and size. A well-calibrated model has mean ≈ observed.
+ * prediction are cut into `bins` groups of (nearly) equal size, never splitting rows with the same
+ * prediction (so a model with few distinct scores gives fewer, larger bins); each bin reports its
+ * prediction range, mean prediction, observed positive rate and size. Well calibrated: mean ≈ observed.
  * Throws RangeError when the lengths differ or are zero.
  *
  * @example calibrationTable([0.1, 0.2, 0.8, 0.9], [0, 0, 1, 1], 2)
@@ -20,10 +21,11 @@ export function calibrationTable(probabilities: ArrayLike<number>, labels: Array
   if (n === 0 || labels.length !== n) throw new RangeError(`calibrationTable: ${n} probabilities, ${labels.length} labels`);
   const order = Array.from({ length: n }, (_, i) => i).sort((a, b) => probabilities[a] - probabilities[b]);
   const out: CalibrationBin[] = [];
-  for (let b = 0; b < bins; b++) {
-    const start = Math.floor((b * n) / bins);
-    const end = Math.floor(((b + 1) * n) / bins);
-    if (end <= start) continue;
+  let start = 0;
+  for (let b = 1; b <= bins && start < n; b++) {
+    let end = Math.max(start + 1, Math.floor((b * n) / bins));
+    while (end < n && probabilities[order[end]] === probabilities[order[end - 1]]) end++;
+    if (b === bins) end = n;
     let sp = 0;
     let sy = 0;
     for (let i = start; i < end; i++) {
@@ -31,6 +33,7 @@ export function calibrationTable(probabilities: ArrayLike<number>, labels: Array
       sy += labels[order[i]];
     }
     out.push({ from: probabilities[order[start]], to: probabilities[order[end - 1]], meanPredicted: sp / (end - start), observed: sy / (end - start), n: end - start });
+    start = end;
   }
   return out;
 }
