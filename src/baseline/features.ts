@@ -10,16 +10,25 @@ import type { Baseline, Exclusion } from "./rates.js";
 
 /**
  * The four counts split the requested permissions into disjoint groups (common or uncommon for the
- * category, sensitive or not), which keeps them far less collinear than nested counts would be.
+ * category, sensitive or not), which keeps them far less collinear than nested counts would be. Each
+ * enters the model as ln(1 + count): the first uncommon permission says more than the fifth, and the
+ * transform is increasing, so monotonicity holds.
  */
-export const FEATURE_NAMES = ["commonOther", "commonSensitive", "uncommonOther", "uncommonSensitive", "surprisal"] as const;
+export const FEATURE_NAMES = ["commonOther", "commonSensitive", "uncommonOther", "uncommonSensitive", "anyUncommonSensitive", "surprisal"] as const;
 export type FeatureName = (typeof FEATURE_NAMES)[number];
 
+/** Features that are counts, entered as ln(1 + count). */
+const LOG_COUNTS = new Set<FeatureName>(["commonOther", "commonSensitive", "uncommonOther", "uncommonSensitive"]);
+
+/** Features that say whether any permission has the property (the sum capped at 1). */
+const INDICATORS = new Set<FeatureName>(["anyUncommonSensitive"]);
+
 export const FEATURE_DESCRIPTIONS: Record<FeatureName, string> = {
-  commonOther: "requested permissions common for the category, not sensitive",
-  commonSensitive: "requested permissions common for the category and sensitive",
-  uncommonOther: "requested permissions uncommon for the category, not sensitive",
-  uncommonSensitive: "requested permissions uncommon for the category and sensitive (dangerous, app-op or restricted)",
+  commonOther: "ln(1 + permissions common for the category, not sensitive)",
+  commonSensitive: "ln(1 + permissions common for the category and sensitive)",
+  uncommonOther: "ln(1 + permissions uncommon for the category, not sensitive)",
+  uncommonSensitive: "ln(1 + permissions uncommon for the category and sensitive: dangerous, app-op or restricted)",
+  anyUncommonSensitive: "at least one uncommon sensitive permission (1 or 0)",
   surprisal: "summed surprisal, −ln(rate), of the requested permissions",
 };
 
@@ -50,6 +59,7 @@ export function permissionTerms(baseline: Baseline, category: string | undefined
       commonSensitive: !r.uncommon && sensitive ? 1 : 0,
       uncommonOther: r.uncommon && !sensitive ? 1 : 0,
       uncommonSensitive: r.uncommon && sensitive ? 1 : 0,
+      anyUncommonSensitive: r.uncommon && sensitive ? 1 : 0,
       surprisal: -Math.log(r.rate),
     },
   };
@@ -71,5 +81,5 @@ export function appFeatures(
     const t = permissionTerms(baseline, category, p, options.exclude).terms;
     for (let i = 0; i < FEATURE_NAMES.length; i++) sums[i] += t[FEATURE_NAMES[i]];
   }
-  return sums;
+  return sums.map((x, i) => (LOG_COUNTS.has(FEATURE_NAMES[i]) ? Math.log1p(x) : INDICATORS.has(FEATURE_NAMES[i]) ? Math.min(x, 1) : x));
 }
