@@ -3,7 +3,7 @@
 // measured in the same run, and as a ratio to it. Run with `npm run bench` (builds first).
 //
 //   node scripts/bench.mjs [--only extract] [--sizes 5,50,200] [--reps 15]
-import { execFileSync } from "node:child_process";
+import { execFileSync, spawnSync } from "node:child_process";
 import { closeSync, existsSync, fstatSync, mkdirSync, openSync, readFileSync, readSync, rmSync, writeFileSync, openSync as open2, writeSync } from "node:fs";
 import { randomBytes } from "node:crypto";
 import { join } from "node:path";
@@ -22,6 +22,7 @@ const REPS = Number(opt("reps", "41"));
 const OUT = join(ROOT, "bench-out");
 mkdirSync(OUT, { recursive: true });
 
+const ONLY = opt("only", "extract,learn").split(",");
 const median = (xs) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 const ms = (t0) => Number(process.hrtime.bigint() - t0) / 1e6;
 const fmt = (x) => (x < 10 ? x.toFixed(3) : x.toFixed(1));
@@ -31,6 +32,7 @@ function header(title) {
 }
 
 // ---------------------------------------------------------------------------------------------
+if (ONLY.includes("extract")) {
 header("decode: the platform's framework manifest (222 KB, UTF-16), in process");
 {
   const bytes = readFileSync(join(ROOT, "fixtures/platform/framework-res-AndroidManifest.xml"));
@@ -203,6 +205,45 @@ function rss() {
   console.log(`peak RSS of this benchmark process: ${rss().toFixed(0)} MB (includes the synthetic files' generation)`);
   console.log("facts in-process = archive layer + decoding the manifest and building the model (which the floor does not do)");
   console.log("goal: facts within 1.5x of the floor at 200 MB");
+}
+}
+
+// ---------------------------------------------------------------------------------------------
+if (ONLY.includes("learn")) {
+  const ROWS = Number(opt("learn-rows", "1000000"));
+  header(`learn: ${ROWS.toLocaleString("en")} synthetic JSONL records`);
+  const path = join(OUT, `corpus-${ROWS}.jsonl`);
+  if (!existsSync(path)) {
+    const fd = open2(path, "w");
+    const perms = [...lib.platformPermissions().keys()].filter((p) => p.startsWith("android.permission.")).slice(0, 300);
+    const cats = ["Tools", "Communication", "Education", "Social", "Games", "Weather", "Finance", "Health"];
+    let x = 12345;
+    const rnd = () => ((x = (Math.imul(x, 1103515245) + 12345) >>> 0) / 4294967296);
+    let buf = "";
+    for (let i = 0; i < ROWS; i++) {
+      const k = 3 + Math.floor(rnd() * 15);
+      const set = new Set();
+      for (let j = 0; j < k; j++) set.add(perms[Math.floor(rnd() * rnd() * perms.length)]);
+      buf += `${JSON.stringify({ id: `org.example.bench${i}`, category: cats[Math.floor(rnd() * cats.length)], permissions: [...set], label: rnd() < 0.2 + 0.02 * k ? 1 : 0 })}\n`;
+      if (buf.length > 1 << 20) { writeSync(fd, buf); buf = ""; }
+    }
+    writeSync(fd, buf);
+    closeSync(fd);
+  }
+  const timed = (args) => {
+    const t = process.hrtime.bigint();
+    const r = spawnSync("/usr/bin/time", ["-f", "%M", ...args], { encoding: "utf8", stdio: ["ignore", "ignore", "pipe"] });
+    if (r.status !== 0) throw new Error(`${args.join(" ")} failed: ${r.stderr}`);
+    return { seconds: ms(t) / 1000, rssMb: Number(r.stderr.trim().split("\n").pop()) / 1024 };
+  };
+  // Floor: the same file read line by line and parsed, nothing counted.
+  const floor = timed([process.execPath, "-e", `const rl=require("readline").createInterface({input:require("fs").createReadStream(${JSON.stringify(path)},{highWaterMark:1<<20}),crlfDelay:Infinity});let n=0;rl.on("line",l=>{if(l)JSON.parse(l),n++});`]);
+  const noModel = timed([process.execPath, join(ROOT, "bin/overask.js"), "learn", path, "--label-field", "none", "-o", join(OUT, "bench-baseline.json")]);
+  const withModel = timed([process.execPath, join(ROOT, "bin/overask.js"), "learn", path, "-o", join(OUT, "bench-baseline-model.json")]);
+  const sample = JSON.parse(readFileSync(join(OUT, "bench-baseline-model.json"), "utf8")).model?.sample;
+  console.log(`floor (read + JSON.parse every line): ${floor.seconds.toFixed(1)} s, peak RSS ${floor.rssMb.toFixed(0)} MB`);
+  console.log(`learn without a model:                ${noModel.seconds.toFixed(1)} s (${(noModel.seconds / floor.seconds).toFixed(2)}x the floor), peak RSS ${noModel.rssMb.toFixed(0)} MB  (goal < 60 s, < 1 GB)`);
+  console.log(`learn with the model:                 ${withModel.seconds.toFixed(1)} s, peak RSS ${withModel.rssMb.toFixed(0)} MB, trained on ${sample ? `a sample of ${sample.taken} of ${sample.of}` : "all"} labeled rows`);
 }
 
 if (!args.includes("--keep")) rmSync(OUT, { recursive: true, force: true });

@@ -1,51 +1,60 @@
 /**
- * The README's examples run as tests: every `npx overask …` line in a shell block, and the library
- * snippet, must work as written from the project root.
+ * The README's examples run as tests: every `npx overask …` line in a shell block must work as written
+ * from the project root, each text excerpt must be what the command before it prints, and the library
+ * snippet must run.
  */
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import { run } from "../src/cli/main.js";
 import { readManifestFile, requestedPermissionNames } from "../src/index.js";
 import { ROOT } from "./helpers/paths.js";
+import { documentedCommands } from "./helpers/shell-words.js";
 
 const readme = readFileSync(`${ROOT}README.md`, "utf8");
-const shellBlocks = [...readme.matchAll(/```sh\n([\s\S]*?)```/g)].map((m) => m[1]);
-const commands = shellBlocks.flatMap((b) => b.split("\n")).map((l) => l.replace(/#.*$/, "").trim()).filter((l) => l.startsWith("npx overask "));
+const commands = documentedCommands(readme);
+
+async function runInRoot(argv: string[]) {
+  const cwd = process.cwd();
+  process.chdir(ROOT);
+  let out = "";
+  let err = "";
+  try {
+    const code = await run(argv, { stdout: { write: (s: string) => (out += s) }, stderr: { write: (s: string) => (err += s) }, env: {} });
+    return { code, out, err };
+  } finally {
+    process.chdir(cwd);
+  }
+}
 
 describe("README examples", () => {
   it("has examples to run", () => {
-    expect(commands.length).toBeGreaterThan(0);
+    expect(commands.length).toBeGreaterThan(3);
   });
 
-  for (const command of commands) {
-    it(`runs: ${command}`, async () => {
-      const cwd = process.cwd();
-      process.chdir(ROOT);
-      let out = "";
-      let err = "";
-      try {
-        const code = await run(command.split(/\s+/).slice(2), { stdout: { write: (s: string) => (out += s) }, stderr: { write: (s: string) => (err += s) }, env: {} });
-        expect(err).toBe("");
-        expect(code).toBe(0);
-        expect(out.length).toBeGreaterThan(0);
-      } finally {
-        process.chdir(cwd);
-      }
+  for (const argv of commands) {
+    it(`runs: overask ${argv.join(" ")}`, async () => {
+      const { code, out, err } = await runInRoot(argv);
+      expect(err.split("\n").filter((l) => l && !l.startsWith("overask: note: "))).toEqual([]);
+      expect(code).toBe(0);
+      expect(out.length).toBeGreaterThan(0);
     });
   }
 
-  it("shows an excerpt that the command really prints", async () => {
-    const excerpt = /```text\n([\s\S]*?)```/.exec(readme)![1].split("\n").filter((l) => l.trim() && l.trim() !== "...");
-    const cwd = process.cwd();
-    process.chdir(ROOT);
-    let out = "";
-    try {
-      await run(["facts", "fixtures/apk/pocketlamp.apk"], { stdout: { write: (s: string) => (out += s) }, stderr: { write: () => true }, env: {} });
-    } finally {
-      process.chdir(cwd);
-    }
-    for (const line of excerpt) expect(out.split("\n")).toContain(line);
+  // Each ```text excerpt shows the output of the first command of the nearest ```sh block before it.
+  const blocks = [...readme.matchAll(/```(\w+)\n([\s\S]*?)```/g)].map((m) => ({ lang: m[1], body: m[2] }));
+  const excerpts: [string[], string][] = [];
+  blocks.forEach((b, i) => {
+    if (b.lang !== "text") return;
+    const sh = blocks.slice(0, i).reverse().find((p) => p.lang === "sh" && documentedCommands(`\`\`\`sh\n${p.body}\`\`\``).length > 0)!;
+    excerpts.push([documentedCommands(`\`\`\`sh\n${sh.body}\`\`\``)[0], b.body]);
   });
+  for (const [argv, text] of excerpts) {
+    it(`shows an excerpt that "overask ${argv.slice(0, 2).join(" ")} …" really prints`, async () => {
+      const { out } = await runInRoot(argv);
+      const lines = out.split("\n");
+      for (const line of text.split("\n").filter((l) => l.trim() && l.trim() !== "...")) expect(lines).toContain(line);
+    });
+  }
 
   it("runs the library snippet", () => {
     const m = readManifestFile(`${ROOT}fixtures/apk/chirpchat.apk`);

@@ -3,7 +3,7 @@
  */
 import { MANIFEST_SCHEMA_VERSION, type Component, type Manifest, type RequestedPermission } from "../extract/model.js";
 import { TOOL_VERSION } from "../version.js";
-import { PLAIN, fit, type Style } from "./style.js";
+import { PLAIN, fit, wrap, type Style } from "./style.js";
 
 export interface FactsResult {
   file: string;
@@ -74,21 +74,6 @@ const PLATFORM_PREFIX = "android.permission.";
 /** Permission names in tables drop the `android.permission.` prefix; the table heading says so. */
 function shortName(name: string): string {
   return name.startsWith(PLATFORM_PREFIX) ? name.slice(PLATFORM_PREFIX.length) : name;
-}
-
-/** Word-wraps `text` to `width` columns, continuation lines indented by `indent` spaces. */
-function wrap(text: string, width: number, indent: number): string[] {
-  const lead = /^ */.exec(text)![0];
-  const lines: string[] = [];
-  let line = lead;
-  for (const word of text.slice(lead.length).split(" ")) {
-    if (line.trim() && line.length + 1 + word.length > width) {
-      lines.push(line);
-      line = " ".repeat(indent) + word;
-    } else line = line.trim() ? `${line} ${word}` : line + word;
-  }
-  if (line.trim()) lines.push(line);
-  return lines;
 }
 
 function manifestText(file: string, m: Manifest, s: Style): string {

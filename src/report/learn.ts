@@ -4,7 +4,7 @@
  */
 import type { BaselineFile } from "../baseline/baseline-file.js";
 import { FEATURE_DESCRIPTIONS, type FeatureName } from "../baseline/features.js";
-import { PLAIN, fit, type Style } from "./style.js";
+import { PLAIN, fit, wrap, type Style } from "./style.js";
 
 const pct = (x: number) => `${(100 * x).toFixed(1)}%`;
 
@@ -48,6 +48,6 @@ export function baselineSummary(file: BaselineFile, outPath: string, s: Style = 
     out.push("", s.bold("Notes"));
     for (const n of file.provenance.notes) out.push(`  - ${n}`);
   }
-  out.push("", s.dim(file.caution));
-  return `${out.join("\n")}\n`;
+  out.push("", ...wrap(file.caution, 80, 0).map((l) => s.dim(l)));
+  return `${out.flatMap((l) => (l.length > 80 && !l.includes("\u001b") ? wrap(l, 80, 6) : [l])).join("\n")}\n`;
 }

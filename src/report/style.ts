@@ -25,3 +25,19 @@ export function fit(s: string, width: number): string {
   if (s.length <= width) return s.padEnd(width);
   return `${s.slice(0, Math.max(0, width - 1))}…`;
 }
+
+/** Word-wraps `text` to `width` columns, continuation lines indented by `indent` spaces. */
+export function wrap(text: string, width: number, indent: number): string[] {
+  const lead = /^ */.exec(text)![0];
+  const lines: string[] = [];
+  let line = lead;
+  for (const word of text.slice(lead.length).split(" ")) {
+    if (line.trim() && line.length + 1 + word.length > width) {
+      lines.push(line);
+      line = " ".repeat(indent) + word;
+    } else line = line.trim() ? `${line} ${word}` : line + word;
+  }
+  if (line.trim()) lines.push(line);
+  return lines;
+}
+

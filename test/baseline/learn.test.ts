@@ -1,0 +1,120 @@
+import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+import { baselineOf, foldBaselines, readBaselineFile } from "../../src/baseline/baseline-file.js";
+import { CountTable } from "../../src/baseline/counts.js";
+import { appFeatures, FEATURE_NAMES } from "../../src/baseline/features.js";
+import { learn } from "../../src/baseline/learn.js";
+import { modelRisk } from "../../src/baseline/model.js";
+import { Baseline } from "../../src/baseline/rates.js";
+import { seededRandom } from "../../src/util/random.js";
+import { ROOT } from "../helpers/paths.js";
+
+const CORPUS = `${ROOT}fixtures/corpus/harbourview.jsonl`;
+const LINES = readFileSync(CORPUS, "utf8").trim().split("\n");
+const dir = mkdtempSync(join(tmpdir(), "overask-learn-"));
+const frequenciesOnly = { labelField: "no-such-field" };
+
+describe("fold", () => {
+  for (const seed of [1, 2, 3]) {
+    it(`gives exactly the counts of learning on both parts at once (random split, seed ${seed})`, async () => {
+      const rand = seededRandom(seed);
+      const parts: string[][] = [[], []];
+      for (const line of LINES) parts[rand() < 0.4 ? 0 : 1].push(line);
+      const paths = parts.map((p, i) => {
+        const path = join(dir, `part${seed}-${i}.jsonl`);
+        writeFileSync(path, `${p.join("\n")}\n`);
+        return path;
+      });
+      const whole = await learn({ frequencies: [{ path: CORPUS, options: frequenciesOnly }] });
+      const a = await learn({ frequencies: [{ path: paths[0], options: frequenciesOnly }] });
+      const b = await learn({ frequencies: [{ path: paths[1], options: frequenciesOnly }] });
+      const folded = foldBaselines([{ path: paths[0], file: a.file }, { path: paths[1], file: b.file }]);
+      expect(folded.counts).toEqual(whole.file.counts);
+      expect(folded.model).toBeNull();
+    });
+  }
+
+  it("refuses baselines learned with different parameters", async () => {
+    const a = await learn({ frequencies: [{ path: CORPUS, options: frequenciesOnly }] });
+    const b = await learn({ frequencies: [{ path: CORPUS, options: frequenciesOnly }], parameters: { minSupport: 5 } });
+    expect(() => foldBaselines([{ path: "a.json", file: a.file }, { path: "b.json", file: b.file }])).toThrow(/parameters differ/);
+  });
+});
+
+describe("the risk model learned from the demo corpus", async () => {
+  const result = await learn({ frequencies: [{ path: CORPUS, options: { labelField: "flagged", positive: ["yes"] } }] });
+  const model = result.file.model!;
+  const baseline = baselineOf(result.file);
+
+  it("has non-negative coefficients and records what it dropped", () => {
+    expect(model.coefficients.every((c) => c >= 0)).toBe(true);
+    for (const d of model.dropped) expect(d.coefficient).toBeLessThan(0);
+    expect(result.file.provenance.notes.filter((n) => n.startsWith("feature "))).toHaveLength(model.dropped.length);
+  });
+
+  it("never raises the risk when a permission is removed (monotonicity, on apps drawn from the corpus)", () => {
+    const rand = seededRandom(11);
+    for (let t = 0; t < 200; t++) {
+      const app = JSON.parse(LINES[Math.floor(rand() * LINES.length)]) as { category: string; permissions: string[] };
+      const full = modelRisk(model, FEATURE_NAMES, appFeatures(baseline, app.category, app.permissions));
+      for (const p of app.permissions) {
+        const less = modelRisk(model, FEATURE_NAMES, appFeatures(baseline, app.category, app.permissions.filter((q) => q !== p)));
+        expect(less).toBeLessThanOrEqual(full + 1e-15);
+      }
+    }
+  });
+
+  it("scores a training row against counts that leave that row out (cross-fitting)", () => {
+    const i = 17;
+    const app = JSON.parse(LINES[i]) as { category: string; permissions: string[] };
+    const without = new CountTable();
+    LINES.forEach((line, j) => {
+      if (j !== i) without.add(JSON.parse(line));
+    });
+    const loo = new Baseline(without, baseline.parameters);
+    const crossFitted = appFeatures(baseline, app.category, app.permissions, { exclude: { category: app.category, permissions: new Set(app.permissions) } });
+    expect(crossFitted).toEqual(appFeatures(loo, app.category, app.permissions));
+    expect(crossFitted).not.toEqual(appFeatures(baseline, app.category, app.permissions));
+  });
+
+  it("beats both reference scores in cross-validation on the demo corpus", () => {
+    const e = model.evaluation;
+    expect(e.auc).toBeGreaterThan(e.references.dangerousCount.auc);
+    expect(e.brier).toBeLessThan(e.brierOfBaseRate);
+    expect(e.calibration.reduce((s, b) => s + b.n, 0)).toBe(model.training.rows);
+  });
+
+  it("is deterministic for a seed", async () => {
+    const again = await learn({ frequencies: [{ path: CORPUS, options: { labelField: "flagged", positive: ["yes"] } }], createdAt: new Date(result.file.createdAt) });
+    expect(again.file).toEqual(result.file);
+  });
+
+  it("trains on a seeded stratified sample above the row limit, and says so", async () => {
+    const sampled = await learn({ frequencies: [{ path: CORPUS, options: { labelField: "flagged", positive: ["yes"] } }], model: { maxRows: 600 } });
+    expect(sampled.file.model!.sample).toEqual({ of: 1500, taken: 600, seed: 1 });
+    const share = sampled.file.model!.training.positives / 600;
+    expect(Math.abs(share - model.training.positives / 1500)).toBeLessThan(0.01);
+    expect(sampled.file.provenance.notes.join("\n")).toMatch(/stratified sample of 600 of 1500/);
+  });
+});
+
+describe("reject threshold", () => {
+  it("fails with a clear message when too many rows are rejected", async () => {
+    const p = join(dir, "bad.jsonl");
+    writeFileSync(p, `${LINES.slice(0, 90).join("\n")}\n${Array.from({ length: 10 }, () => "{oops").join("\n")}\n`);
+    await expect(learn({ frequencies: [{ path: p, options: {} }] })).rejects.toThrow(/10 of 100 rows rejected \(10\.0%\), over the limit of 5\.0%; first at line 91/);
+    await expect(learn({ frequencies: [{ path: p, options: {} }], rejectLimit: 0.2 })).resolves.toBeDefined();
+  });
+});
+
+describe("baseline files", () => {
+  it("refuses another schema version with a clear message", () => {
+    const p = join(dir, "old.json");
+    writeFileSync(p, JSON.stringify({ format: "overask-baseline", schemaVersion: 99 }));
+    expect(() => readBaselineFile(p)).toThrow(/schema version 99; this overask .* reads version 1/);
+    writeFileSync(p, "{");
+    expect(() => readBaselineFile(p)).toThrow(/is not JSON/);
+  });
+});

@@ -1,0 +1,98 @@
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, writeFileSync, chmodSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+import { EXIT } from "../../src/cli/exit-codes.js";
+import { ROOT } from "../helpers/paths.js";
+import { cli } from "./facts.test.js";
+
+const CORPUS = `${ROOT}fixtures/corpus/harbourview.jsonl`;
+const dir = mkdtempSync(join(tmpdir(), "overask-cli-learn-"));
+
+describe("overask learn", () => {
+  it("writes a baseline and prints a summary with the model against the reference scores", async () => {
+    const out = join(dir, "demo.json");
+    const { code, stdout, stderr } = await cli(["learn", CORPUS, "--label-field", "flagged", "--positive", "yes", "-o", out]);
+    expect(stderr).toBe("");
+    expect(code).toBe(EXIT.OK);
+    expect(JSON.parse(readFileSync(out, "utf8")).format).toBe("overask-baseline");
+    expect(stdout).toMatch(/this model\s+0\.\d{3}\s+0\.\d{4}/);
+    expect(stdout).toMatch(/number of dangerous permissions\s+0\.\d{3}/);
+    expect(stdout).toMatch(/Weather\s+22 apps\s+below 30: uses the pooled baseline/);
+    expect(stdout).toMatch(/not evidence of intent or harm/);
+    for (const line of stdout.split("\n")) expect(line.length, line).toBeLessThanOrEqual(80);
+  });
+
+  it("lists every rejected row with --rejects and fails over the reject limit", async () => {
+    const bad = join(dir, "bad.jsonl");
+    const lines = readFileSync(CORPUS, "utf8").trim().split("\n").slice(0, 40);
+    writeFileSync(bad, `${lines.join("\n")}\n{broken\n{"id":"q","permissions":[]}\n{"id":"r","category":"Tools"}\n`);
+    const rejects = join(dir, "rejects.csv");
+    const out = join(dir, "never.json");
+    const { code, stderr } = await cli(["learn", bad, "--rejects", rejects, "-o", out]);
+    expect(code).toBe(EXIT.INPUT);
+    expect(stderr).toMatch(new RegExp(`^overask: ${bad}: 3 of 43 rows rejected \\(7\\.0%\\), over the limit of 5\\.0%; first at line 41`));
+    expect(readFileSync(rejects, "utf8").trim().split("\n")).toEqual([
+      "file,line,reason",
+      expect.stringMatching(new RegExp(`^${bad},41,"?not valid JSON`)),
+      `${bad},42,no category`,
+      `${bad},43,"field ""permissions"" is not a list of permission names"`,
+    ]);
+    expect(existsSync(out)).toBe(false);
+  });
+
+  it("rejects malformed options with the usage code", async () => {
+    expect((await cli(["learn", CORPUS, "--confidence", "1.5", "-o", join(dir, "x.json")])).code).toBe(EXIT.USAGE);
+    expect((await cli(["learn", CORPUS, "--alias", "nonsense", "-o", join(dir, "x.json")])).code).toBe(EXIT.USAGE);
+    expect((await cli(["learn", CORPUS])).code).toBe(EXIT.USAGE); // -o is required
+  });
+
+  it("keeps the old baseline when the new one cannot be written", async () => {
+    const ro = join(dir, "readonly");
+    mkdirSync(ro);
+    const out = join(ro, "b.json");
+    writeFileSync(out, "old");
+    chmodSync(ro, 0o500);
+    try {
+      const { code, stderr } = await cli(["learn", CORPUS, "--label-field", "none", "-o", out]);
+      if (process.getuid?.() === 0) {
+        // root ignores folder permissions; the write then succeeds, which is all this case can show
+        expect(code).toBe(EXIT.OK);
+      } else {
+        expect(code).toBe(EXIT.OUTPUT);
+        expect(stderr).toMatch(/cannot be written: the folder is not writable/);
+        expect(readFileSync(out, "utf8")).toBe("old");
+      }
+      expect(readdirSync(ro).filter((f) => f.endsWith(".tmp"))).toEqual([]);
+    } finally {
+      chmodSync(ro, 0o700);
+    }
+  });
+
+  it("fails with the output code when the folder does not exist", async () => {
+    const { code, stderr } = await cli(["learn", CORPUS, "--label-field", "none", "-o", join(dir, "no/such/dir/b.json")]);
+    expect(code).toBe(EXIT.OUTPUT);
+    expect(stderr).toMatch(/cannot be written: the folder does not exist/);
+  });
+});
+
+describe("overask fold", () => {
+  it("adds up baselines and notes that models do not merge", async () => {
+    const a = join(dir, "fa.json");
+    const b = join(dir, "fb.json");
+    await cli(["learn", CORPUS, "--label-field", "flagged", "--positive", "yes", "-o", a]);
+    await cli(["learn", CORPUS, "--label-field", "none", "-o", b]);
+    const out = join(dir, "folded.json");
+    const { code, stdout, stderr } = await cli(["fold", a, b, "-o", out]);
+    expect(code).toBe(EXIT.OK);
+    expect(stdout).toMatch(/Folded 2 baselines into .*: 3000 apps in 5 categories/);
+    expect(stderr).toMatch(/models do not merge/);
+    expect(JSON.parse(readFileSync(out, "utf8")).counts.pooled.apps).toBe(3000);
+  });
+
+  it("refuses a file that is not a baseline", async () => {
+    const { code, stderr } = await cli(["fold", CORPUS, "-o", join(dir, "x.json")]);
+    expect(code).toBe(EXIT.INPUT);
+    expect(stderr).toMatch(/is not JSON|is not an overask baseline/);
+  });
+});
