@@ -96,8 +96,8 @@ export function readBaselineFile(path: string): BaselineFile {
 
 /** The rates view of a baseline file. */
 export function baselineOf(file: BaselineFile): Baseline {
-  const { aliases: _aliases, ...parameters } = file.parameters;
-  return new Baseline(CountTable.fromJSON(file.counts), parameters);
+  const { aliases, ...parameters } = file.parameters;
+  return new Baseline(CountTable.fromJSON(file.counts), parameters, new Map(Object.entries(aliases ?? {})));
 }
 
 /** Serializes a baseline file the same way every time (stable key order from the writers). */

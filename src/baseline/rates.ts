@@ -63,6 +63,8 @@ export class Baseline {
   constructor(
     readonly counts: CountTable,
     readonly parameters: RateParameters = DEFAULT_RATE_PARAMETERS,
+    /** Category aliases the baseline was learned with (source name → baseline name). */
+    readonly aliases: ReadonlyMap<string, string> = new Map(),
   ) {}
 
   /** The category whose counts apply to `category`, or the reason the pooled ones do. */

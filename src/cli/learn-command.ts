@@ -23,7 +23,7 @@ function num(o: Opts, key: string, check: (n: number) => boolean, what: string):
   return v;
 }
 
-function corpusOptions(o: Opts): CorpusOptions {
+export function corpusOptions(o: Opts): CorpusOptions {
   const c: CorpusOptions = {};
   if (o.format) c.format = o.format as CorpusOptions["format"];
   if (o.idField) c.idField = o.idField as string;

@@ -30,6 +30,7 @@ export async function run(argv: string[], io: Io = defaultIo): Promise<number> {
     .configureOutput({ writeOut: (s) => io.stdout.write(s), writeErr: (s) => io.stderr.write(s) })
     .exitOverride();
 
+  const collect = (v: string, prev: string[] = []) => [...prev, v];
   program
     .command("facts")
     .description("read APKs or manifests (binary or plain XML) and print what they declare")
@@ -54,7 +55,6 @@ export async function run(argv: string[], io: Io = defaultIo): Promise<number> {
       io.stdout.write(opts.format === "json" ? factsToJson(results) : factsToText(results.filter((r) => r.manifest), pickStyle(io.stdout, io.env)));
     });
 
-  const collect = (v: string, prev: string[] = []) => [...prev, v];
   program
     .command("learn")
     .description("learn category baselines (and a risk model, from labeled apps) from corpora")
@@ -87,6 +87,28 @@ export async function run(argv: string[], io: Io = defaultIo): Promise<number> {
     .action(async (corpora: string[], o: Record<string, string | string[] | undefined>) => {
       const { learnCommand } = await import("./learn-command.js");
       exitCode = await learnCommand(corpora, o, io);
+    });
+
+  program
+    .command("check")
+    .description("judge apps against their category's baseline: uncommon permissions, other checks, and the risk estimate")
+    .argument("[file...]", "APKs, binary or plain manifests")
+    .option("-c, --category <name>", "category to judge against (otherwise --categories, then android:appCategory, then all categories pooled)")
+    .option("--categories <file>", "CSV mapping package names to categories (package,category)")
+    .option("-b, --baseline <file>", "baseline file (default: the bundled baselines/default.json)")
+    .addOption(new Option("-f, --format <format>", "output format").choices(["text", "json", "sarif"]).default("text"))
+    .addOption(new Option("--fail-on <level>", "exit 1 when a finding is at or above this level").choices(["error", "warning", "note"]))
+    .option("--max-risk <p>", "exit 1 when an app's risk is above this probability")
+    .option("--level <check=level>", "override a check's level: error, warning, note or off (repeatable)", collect)
+    .option("--records <corpus>", "score pre-extracted records (JSONL, wide CSV) instead of files: one JSON line per record")
+    .option("--id-field <name>", "with --records: field or column with the app id")
+    .option("--category-field <name>", "with --records: field or column with the category")
+    .option("--permissions-field <name>", "with --records: JSONL field with the permissions")
+    .option("--columns-from <file>", "with --records: wide CSV permission columns")
+    .option("--columns-kind <kind>", "with --records: keep columns of this kind")
+    .action(async (files: string[], o: Record<string, string | string[] | boolean | undefined>) => {
+      const { checkCommand } = await import("./check-command.js");
+      exitCode = await checkCommand(files, o, io);
     });
 
   program

@@ -1,0 +1,94 @@
+/**
+ * Permissions that do nothing at some target SDK levels. Each row names its source: the platform's own
+ * permission table (src/platform/data, API 34), or "from memory" of the platform's documentation.
+ */
+import { platformPermissions } from "./permissions.js";
+
+export interface NoEffectFact {
+  permission: string;
+  /** The request has no effect when targetSdk is at least this (undefined: no lower bound). */
+  fromTarget?: number;
+  /** The request has no effect when targetSdk is below this. */
+  belowTarget?: number;
+  /** A maxSdkVersion at or below this makes the request fine (it then applies only where it works). */
+  unlessMaxSdkAtMost?: number;
+  /** What to request instead, if anything. */
+  instead?: string[];
+  why: string;
+  source: string;
+}
+
+const P = (s: string) => `android.permission.${s}`;
+
+const FACTS: NoEffectFact[] = [
+  {
+    permission: P("WRITE_EXTERNAL_STORAGE"),
+    fromTarget: 30,
+    unlessMaxSdkAtMost: 29,
+    instead: [],
+    why: "scoped storage: from targetSdk 30 this permission grants no write access",
+    source: "from memory: Android 11 storage behaviour changes (developer documentation)",
+  },
+  {
+    permission: P("READ_EXTERNAL_STORAGE"),
+    fromTarget: 33,
+    unlessMaxSdkAtMost: 32,
+    instead: [P("READ_MEDIA_IMAGES"), P("READ_MEDIA_VIDEO"), P("READ_MEDIA_AUDIO")],
+    why: "from targetSdk 33 media access is granted by the READ_MEDIA_* permissions instead",
+    source: 'platform table: READ_MEDIA_AUDIO/VIDEO/IMAGES "enforced starting in API level TIRAMISU" (33)',
+  },
+  ...["READ_MEDIA_IMAGES", "READ_MEDIA_VIDEO", "READ_MEDIA_AUDIO"].map((name) => ({
+    permission: P(name),
+    belowTarget: 33,
+    instead: [P("READ_EXTERNAL_STORAGE")],
+    why: "enforced only from targetSdk 33; below it READ_EXTERNAL_STORAGE governs media access",
+    source: 'platform table: min_sdk 33, "enforced starting in API level TIRAMISU"',
+  })),
+  {
+    permission: P("POST_NOTIFICATIONS"),
+    belowTarget: 33,
+    why: "below targetSdk 33 the system asks for notification permission on the app's behalf",
+    source: "from memory: Android 13 notification runtime permission (developer documentation)",
+  },
+  {
+    permission: P("BLUETOOTH"),
+    fromTarget: 31,
+    unlessMaxSdkAtMost: 30,
+    instead: [P("BLUETOOTH_CONNECT"), P("BLUETOOTH_SCAN"), P("BLUETOOTH_ADVERTISE")],
+    why: "from targetSdk 31 Bluetooth access is granted by BLUETOOTH_CONNECT, _SCAN and _ADVERTISE",
+    source: "from memory: Android 12 Bluetooth permissions (developer documentation)",
+  },
+  {
+    permission: P("BLUETOOTH_ADMIN"),
+    fromTarget: 31,
+    unlessMaxSdkAtMost: 30,
+    instead: [P("BLUETOOTH_CONNECT"), P("BLUETOOTH_SCAN"), P("BLUETOOTH_ADVERTISE")],
+    why: "from targetSdk 31 Bluetooth access is granted by BLUETOOTH_CONNECT, _SCAN and _ADVERTISE",
+    source: "from memory: Android 12 Bluetooth permissions (developer documentation)",
+  },
+];
+
+let table: Map<string, NoEffectFact> | undefined;
+
+/** The no-effect facts, including every permission the platform table marks as removed (any target). */
+export function noEffectFacts(): ReadonlyMap<string, NoEffectFact> {
+  if (!table) {
+    table = new Map(FACTS.map((f) => [f.permission, f]));
+    for (const p of platformPermissions().values()) {
+      if (p.removed && !table.has(p.name)) {
+        table.set(p.name, { permission: p.name, why: "the platform keeps this name only for compatibility; it grants nothing", source: 'platform table: permissionFlags "removed"' });
+      }
+    }
+  }
+  return table;
+}
+
+/** The fact that makes `permission` useless at `targetSdk` with `maxSdkVersion`, if any. */
+export function noEffectAt(permission: string, targetSdk: number, maxSdkVersion?: number): NoEffectFact | undefined {
+  const f = noEffectFacts().get(permission);
+  if (!f) return undefined;
+  if (f.fromTarget !== undefined && targetSdk < f.fromTarget) return undefined;
+  if (f.belowTarget !== undefined && targetSdk >= f.belowTarget) return undefined;
+  if (f.unlessMaxSdkAtMost !== undefined && maxSdkVersion !== undefined && maxSdkVersion <= f.unlessMaxSdkAtMost) return undefined;
+  return f;
+}

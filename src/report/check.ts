@@ -1,0 +1,109 @@
+/**
+ * Formatters for `overask check`: text for a person, JSON for machines (docs/check-json.md).
+ * Pure functions from results to strings.
+ */
+import type { CheckResult } from "../score/check-app.js";
+import type { CategoryChoice } from "../score/category.js";
+import { checkById } from "../score/registry.js";
+import type { RiskEstimate } from "../score/risk.js";
+import type { Finding } from "../score/types.js";
+import { TOOL_VERSION } from "../version.js";
+import { PLAIN, fit, wrap, type Style } from "./style.js";
+
+export const CHECK_SCHEMA_VERSION = 1;
+
+export interface CheckRun {
+  file: string;
+  result?: CheckResult;
+  error?: { kind: string; message: string };
+}
+
+export interface CheckRunInfo {
+  baseline: string;
+  caution: string;
+}
+
+const pct = (x: number) => `${(100 * x).toFixed(x < 0.1 ? 1 : 0)}%`;
+const short = (name: string) => name.replace(/^android\.permission\./, "");
+
+export function messageOf(f: Pick<Finding, "checkId" | "subject" | "data">): string {
+  return checkById(f.checkId)?.message(f) ?? f.checkId;
+}
+
+export function categoryText(c: CategoryChoice): string {
+  const how = { option: "from --category", index: "from --categories", appCategory: "from android:appCategory", none: "" }[c.source];
+  if (c.category) return `${c.category} (${how})`;
+  const why = {
+    "no-category": "no category given or declared",
+    "unknown-category": `"${c.requested}" is not a category of the baseline`,
+    "below-min-support": `"${c.requested}" has too few apps in the baseline`,
+  }[c.fallback ?? "no-category"];
+  return `all categories pooled: ${why}`;
+}
+
+export function riskLines(r: RiskEstimate, s: Style, width = 80): string[] {
+  const out: string[] = [];
+  const bandText = r.band === "high" ? s.alert("high") : r.band === "elevated" ? s.warn("elevated") : "low";
+  out.push(`${s.bold("Risk")}  ${pct(r.probability)} — ${bandText}  ${s.dim(`(base rate ${pct(r.baseRate)})`)}`);
+  out.push(...wrap(`  ${r.caution}`, width, 2).map((l) => s.dim(l)));
+  const top = r.contributions.filter((c) => c.logOdds > 0).slice(0, 3);
+  if (top.length) {
+    out.push("  raised most by:");
+    for (const c of top) out.push(...wrap(`    ${c.description} (${Number.isInteger(c.value) ? c.value : c.value.toFixed(2)})`, width, 6));
+  }
+  const drops = r.whatIf.filter((w) => w.change < -0.0005).slice(0, 5);
+  if (drops.length) {
+    out.push("  without one permission:");
+    for (const w of drops) out.push(`    ${fit(short(w.permission), 40)}  ${pct(r.probability)} → ${pct(w.without)}`);
+  } else out.push("  removing any one permission alone would not lower it");
+  if (r.withoutUncommon && r.withoutUncommon.without < r.probability - 0.0005) {
+    out.push(...wrap(`  without all ${r.withoutUncommon.permissions.length} permissions uncommon for the category (${r.withoutUncommon.permissions.map(short).join(", ")}): ${pct(r.probability)} → ${pct(r.withoutUncommon.without)}`, width, 4));
+  }
+  return out;
+}
+
+export function checkToText(runs: CheckRun[], info: CheckRunInfo, s: Style = PLAIN): string {
+  const parts: string[] = [];
+  for (const run of runs) {
+    if (!run.result) {
+      parts.push(`${s.alert("error")} ${run.file}: ${run.error?.message ?? "unreadable"}\n`);
+      continue;
+    }
+    const { manifest: m, category, findings, risk } = run.result;
+    const out: string[] = [];
+    out.push(s.bold(m.label && m.labelSource !== "unresolved" ? `${m.package}  “${m.label}”` : m.package));
+    out.push(...wrap(`  file        ${run.file}`, 80, 14));
+    out.push(...wrap(`  category    ${categoryText(category)}`, 80, 14));
+    out.push(...wrap(`  baseline    ${info.baseline}`, 80, 14));
+    out.push("");
+    if (risk) out.push(...riskLines(risk, s), "");
+    else out.push(s.dim("Risk  not estimated: the baseline has no risk model"), "");
+    out.push(s.bold(`Findings (${findings.length})`));
+    if (findings.length === 0) out.push("  none");
+    for (const f of findings) {
+      const level = f.level === "error" ? s.alert(fit(f.level, 7)) : f.level === "warning" ? s.warn(fit(f.level, 7)) : fit(f.level, 7);
+      out.push(`  ${level}  ${short(f.subject)}`);
+      out.push(...wrap(`           ${messageOf(f)} [${f.checkId}]`, 80, 11).map((l) => s.dim(l)));
+    }
+    parts.push(`${out.join("\n")}\n`);
+  }
+  return parts.join("\n");
+}
+
+export function checkToJson(runs: CheckRun[], info: CheckRunInfo): string {
+  const results = runs.map((run) => {
+    if (!run.result) return { file: run.file, error: run.error };
+    const { manifest: m, category, findings, risk } = run.result;
+    return {
+      file: run.file,
+      package: m.package,
+      versionCode: m.versionCode,
+      versionName: m.versionName,
+      targetSdk: m.targetSdk,
+      category,
+      findings: findings.map((f) => ({ ...f, message: messageOf(f) })),
+      risk: risk ?? null,
+    };
+  });
+  return `${JSON.stringify({ tool: "overask", version: TOOL_VERSION, schemaVersion: CHECK_SCHEMA_VERSION, baseline: info.baseline, caution: info.caution, results }, null, 2)}\n`;
+}

@@ -1,0 +1,59 @@
+/**
+ * SARIF 2.1.0 (OASIS) for `overask check`: one run, rule descriptors from the check metadata, results
+ * pointing at the line of a plain manifest or, for binary input, at the file with a logical location
+ * (the element path). `results` is always present, even when empty.
+ */
+import type { Log, Result, ReportingDescriptor } from "sarif";
+import { CHECKS } from "../score/registry.js";
+import { TOOL_VERSION } from "../version.js";
+import { messageOf, type CheckRun, type CheckRunInfo } from "./check.js";
+
+export function checkToSarif(runs: CheckRun[], info: CheckRunInfo): string {
+  const rules: ReportingDescriptor[] = CHECKS.map((c) => ({
+    id: c.meta.id,
+    name: c.meta.title.replace(/[^A-Za-z0-9]+(.)?/g, (_, ch: string | undefined) => (ch ? ch.toUpperCase() : "")),
+    shortDescription: { text: c.meta.title },
+    fullDescription: { text: c.meta.description },
+    helpUri: c.meta.docs,
+    defaultConfiguration: { level: c.meta.defaultLevel },
+  }));
+  const results: Result[] = [];
+  for (const run of runs) {
+    const m = run.result?.manifest;
+    if (!run.result || !m) continue;
+    for (const f of run.result.findings) {
+      const physical = m.input.kind === "plain-xml" && f.location.line !== undefined
+        ? { artifactLocation: { uri: toUri(run.file) }, region: { startLine: f.location.line } }
+        : { artifactLocation: { uri: toUri(run.file) } };
+      results.push({
+        ruleId: f.checkId,
+        ruleIndex: CHECKS.findIndex((c) => c.meta.id === f.checkId),
+        level: f.level,
+        message: { text: `${f.subject}: ${messageOf(f)}` },
+        locations: [{ physicalLocation: physical, logicalLocations: [{ fullyQualifiedName: f.location.path, kind: "element" }] }],
+        properties: { package: m.package, subject: f.subject },
+      });
+    }
+  }
+  const log: Log = {
+    $schema: "https://json.schemastore.org/sarif-2.1.0.json",
+    version: "2.1.0",
+    runs: [
+      {
+        tool: { driver: { name: "overask", version: TOOL_VERSION, rules } },
+        results,
+        properties: {
+          baseline: info.baseline,
+          caution: info.caution,
+          apps: runs.map((r) => ({ file: r.file, package: r.result?.manifest.package, risk: r.result?.risk?.probability, band: r.result?.risk?.band, error: r.error?.message })),
+        },
+      },
+    ],
+  };
+  return `${JSON.stringify(log, null, 2)}\n`;
+}
+
+/** Relative paths stay relative (SARIF allows URI references); spaces and the like are escaped. */
+function toUri(path: string): string {
+  return path.split("/").map(encodeURIComponent).join("/");
+}

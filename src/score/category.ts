@@ -1,0 +1,87 @@
+/**
+ * Which category an app is judged against, in this order: `--category`; an index mapping package names to
+ * categories (`--categories map.csv`); the manifest's `android:appCategory` mapped to a baseline category;
+ * otherwise the pooled baseline, and the output says so.
+ */
+import { readFileSync } from "node:fs";
+import type { Baseline, Fallback } from "../baseline/rates.js";
+import { CorpusError } from "../errors.js";
+import type { Manifest } from "../extract/model.js";
+import { splitCsvLine } from "../baseline/corpus/csv.js";
+
+export interface CategoryChoice {
+  /** The baseline category used; absent when the pooled baseline is used. */
+  category?: string;
+  /** The category asked for before any fallback (what the user or manifest said). */
+  requested?: string;
+  source: "option" | "index" | "appCategory" | "none";
+  /** Why the pooled baseline is used, when it is. */
+  fallback?: Fallback;
+}
+
+/**
+ * android:appCategory values and the baseline category names each may match (compared without case).
+ * The enum values are the platform's (ApplicationInfo.CATEGORY_*); the matches are overask's choice,
+ * written for store category names such as Google Play's.
+ */
+export const APP_CATEGORY_MATCHES: Record<string, string[]> = {
+  game: ["game", "games"],
+  audio: ["audio", "music", "music_and_audio", "music & audio"],
+  video: ["video", "video_players", "video players & editors", "entertainment"],
+  image: ["image", "photography"],
+  social: ["social"],
+  news: ["news", "news_and_magazines", "news & magazines"],
+  maps: ["maps", "maps_and_navigation", "maps & navigation", "travel_and_local", "travel & local"],
+  productivity: ["productivity", "tools"],
+  accessibility: ["accessibility", "tools"],
+};
+
+/** Reads a `package,category` CSV (header optional). */
+export function readCategoryIndex(path: string): Map<string, string> {
+  let text: string;
+  try {
+    text = readFileSync(path, "utf8");
+  } catch (e) {
+    throw new CorpusError((e as { code?: string }).code === "ENOENT" ? "no such file" : (e as Error).message, { file: path });
+  }
+  const map = new Map<string, string>();
+  text.split(/\r?\n/).forEach((line, i) => {
+    if (!line.trim()) return;
+    const f = splitCsvLine(line);
+    if (!f || f.length < 2) throw new CorpusError(`line ${i + 1}: expected package,category`, { file: path });
+    if (i === 0 && f[0].trim().toLowerCase() === "package") return;
+    map.set(f[0].trim(), f[1].trim());
+  });
+  return map;
+}
+
+export function chooseCategory(m: Manifest, baseline: Baseline, options: { category?: string; index?: Map<string, string> }): CategoryChoice {
+  let requested: string | undefined;
+  let source: CategoryChoice["source"] = "none";
+  if (options.category) {
+    requested = options.category;
+    source = "option";
+  } else if (options.index?.has(m.package)) {
+    requested = options.index.get(m.package);
+    source = "index";
+  } else if (m.appCategory) {
+    const wanted = APP_CATEGORY_MATCHES[m.appCategory] ?? [m.appCategory];
+    const names = [...baseline.counts.categories.keys()];
+    requested = wanted.map((w) => names.find((n) => n.toLowerCase() === w)).find((n) => n !== undefined) ?? m.appCategory;
+    source = "appCategory";
+  }
+  const name = requested !== undefined ? (baseline.aliases.get(requested) ?? matchCase(requested, baseline)) : undefined;
+  const resolved = baseline.resolveCategory(name);
+  const choice: CategoryChoice = { source };
+  if (requested !== undefined) choice.requested = requested;
+  if (resolved.category !== undefined) choice.category = resolved.category;
+  if (resolved.fallback) choice.fallback = resolved.fallback;
+  return choice;
+}
+
+/** Baseline categories are matched without regard to case (`tools` finds `TOOLS`). */
+function matchCase(name: string, baseline: Baseline): string {
+  if (baseline.counts.categories.has(name)) return name;
+  const lower = name.toLowerCase();
+  return [...baseline.counts.categories.keys()].find((c) => c.toLowerCase() === lower) ?? name;
+}

@@ -1,0 +1,25 @@
+/** exported-unguarded: components other apps can reach without holding any permission. */
+import type { Component } from "../../extract/model.js";
+import type { Check } from "../types.js";
+
+/** The launcher entry point is meant to be reachable by everyone. */
+function isLauncher(c: Component): boolean {
+  return c.intentFilters.some((f) => f.actions.includes("android.intent.action.MAIN") && f.categories.includes("android.intent.category.LAUNCHER"));
+}
+
+export const exportedUnguarded: Check = {
+  meta: {
+    id: "exported-unguarded",
+    title: "Exported component without a permission",
+    description: "Other apps can start, bind or query this component without holding any permission: attack surface worth a look.",
+    docs: "docs/checks/exported-unguarded.md",
+    defaultLevel: "note",
+  },
+  run(ctx) {
+    return ctx.manifest.components
+      .filter((c) => c.effectiveExported && c.enabled !== false && !isLauncher(c))
+      .filter((c) => !c.permission && !(c.kind === "provider" && (c.readPermission || c.writePermission)))
+      .map((c) => ({ subject: c.name, location: c.source, data: { kind: c.kind, reason: c.exportedReason } }));
+  },
+  message: (f) => `${f.data.kind} reachable by any app without a permission (${f.data.reason === "explicit" ? 'android:exported="true"' : "exported by default because of its intent filter, targetSdk below 31"})`,
+};

@@ -1,0 +1,37 @@
+/** special-access-component: components bound by the permissions that give an app special access. */
+import type { Check } from "../types.js";
+
+/**
+ * Binding permissions of services (and the device-admin receiver) through which the user grants an app
+ * special access. Names from the platform table (API 34); what each grants, from memory of the docs.
+ */
+export const SPECIAL_ACCESS: Record<string, string> = {
+  "android.permission.BIND_ACCESSIBILITY_SERVICE": "an accessibility service: reads the screen and acts on the user's behalf",
+  "android.permission.BIND_NOTIFICATION_LISTENER_SERVICE": "a notification listener: reads every notification",
+  "android.permission.BIND_DEVICE_ADMIN": "a device administrator: can lock or wipe the device and enforce policies",
+  "android.permission.BIND_VPN_SERVICE": "a VPN service: sees and routes the device's network traffic",
+  "android.permission.BIND_INPUT_METHOD": "an input method: sees everything the user types",
+  "android.permission.BIND_AUTOFILL_SERVICE": "an autofill service: reads and fills form fields, passwords included",
+  "android.permission.BIND_INCALL_SERVICE": "an in-call service: manages phone calls",
+  "android.permission.BIND_SCREENING_SERVICE": "a call screening service: sees and can block incoming calls",
+  "android.permission.BIND_CALL_REDIRECTION_SERVICE": "a call redirection service: can reroute outgoing calls",
+  "android.permission.BIND_DEVICE_ADMIN_SERVICE": "a device-admin service",
+  "android.permission.BIND_QUICK_ACCESS_WALLET_SERVICE": "a wallet service on the lock screen",
+  "android.permission.BIND_CARRIER_SERVICES": "carrier services",
+};
+
+export const specialAccessComponent: Check = {
+  meta: {
+    id: "special-access-component",
+    title: "Component that claims special access",
+    description: "The app declares a component bound by a permission through which the user grants special access (accessibility, notification listener, device admin, VPN, input method and similar).",
+    docs: "docs/checks/special-access-component.md",
+    defaultLevel: "warning",
+  },
+  run(ctx) {
+    return ctx.manifest.components
+      .filter((c) => c.permission !== undefined && SPECIAL_ACCESS[c.permission] !== undefined)
+      .map((c) => ({ subject: c.name, location: c.source, data: { kind: c.kind, permission: c.permission, grants: SPECIAL_ACCESS[c.permission!] } }));
+  },
+  message: (f) => `${f.data.kind} bound by ${String(f.data.permission).replace(/^android\.permission\./, "")}: ${f.data.grants}`,
+};

@@ -1,0 +1,57 @@
+/** unknown-permission: an android.permission.* name the platform does not define. */
+import { platformPermissions } from "../../platform/permissions.js";
+import type { Check } from "../types.js";
+
+/** Optimal string alignment distance (Damerau–Levenshtein with adjacent transpositions; common practice). */
+export function editDistance(a: string, b: string): number {
+  const d = Array.from({ length: a.length + 1 }, (_, i) => [i, ...new Array<number>(b.length).fill(0)]);
+  for (let j = 1; j <= b.length; j++) d[0][j] = j;
+  for (let i = 1; i <= a.length; i++) {
+    for (let j = 1; j <= b.length; j++) {
+      const cost = a[i - 1] === b[j - 1] ? 0 : 1;
+      d[i][j] = Math.min(d[i - 1][j] + 1, d[i][j - 1] + 1, d[i - 1][j - 1] + cost);
+      if (i > 1 && j > 1 && a[i - 1] === b[j - 2] && a[i - 2] === b[j - 1]) d[i][j] = Math.min(d[i][j], d[i - 2][j - 2] + 1);
+    }
+  }
+  return d[a.length][b.length];
+}
+
+/** The platform permission nearest to `name` by edit distance, with the distance. */
+export function nearestPlatformPermission(name: string): { name: string; distance: number } {
+  let best = { name: "", distance: Infinity };
+  for (const p of platformPermissions().keys()) {
+    if (!p.startsWith("android.permission.")) continue;
+    if (Math.abs(p.length - name.length) >= best.distance) continue;
+    const dist = editDistance(name, p);
+    if (dist < best.distance) best = { name: p, distance: dist };
+  }
+  return best;
+}
+
+/** Up to this many edits, a near platform name is reported as a likely typo. */
+const TYPO_DISTANCE = 2;
+
+export const unknownPermission: Check = {
+  meta: {
+    id: "unknown-permission",
+    title: "Permission not defined by the platform",
+    description: "The app requests an android.permission.* name that the platform does not define: a typo, or a permission from another platform version.",
+    docs: "docs/checks/unknown-permission.md",
+    defaultLevel: "warning",
+  },
+  run(ctx) {
+    const seen = new Set<string>();
+    return ctx.manifest.usesPermissions
+      .filter((p) => p.facts.unknownPlatformName && !p.removedByTools && !seen.has(p.name) && seen.add(p.name))
+      .map((p) => {
+        const near = nearestPlatformPermission(p.name);
+        return { subject: p.name, location: p.source, data: { nearest: near.name, distance: near.distance, likelyTypo: near.distance <= TYPO_DISTANCE } };
+      });
+  },
+  message(f) {
+    const d = f.data as { nearest: string; distance: number; likelyTypo: boolean };
+    return d.likelyTypo
+      ? `not a platform permission; likely a typo for ${d.nearest} (${d.distance} edit${d.distance === 1 ? "" : "s"} away), so the app does not get what it meant to ask for`
+      : "not defined by the platform (API 34): removed, misspelt, or from another platform version; it grants nothing";
+  },
+};

@@ -1,0 +1,25 @@
+/** Every check, sorted by id. A test keeps this list, the docs pages and the tests in step. */
+import { exportedUnguarded } from "./checks/exported-unguarded.js";
+import { noEffectAtTarget } from "./checks/no-effect-at-target.js";
+import { sensitiveUncommon } from "./checks/sensitive-uncommon.js";
+import { specialAccessComponent } from "./checks/special-access-component.js";
+import { uncommonForCategory } from "./checks/uncommon-for-category.js";
+import { ungrantablePermission } from "./checks/ungrantable-permission.js";
+import { unknownPermission } from "./checks/unknown-permission.js";
+import { weakCustomPermission } from "./checks/weak-custom-permission.js";
+import type { Check } from "./types.js";
+
+export const CHECKS: readonly Check[] = [
+  exportedUnguarded,
+  noEffectAtTarget,
+  sensitiveUncommon,
+  specialAccessComponent,
+  uncommonForCategory,
+  ungrantablePermission,
+  unknownPermission,
+  weakCustomPermission,
+];
+
+export function checkById(id: string): Check | undefined {
+  return CHECKS.find((c) => c.meta.id === id);
+}

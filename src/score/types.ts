@@ -1,0 +1,52 @@
+/**
+ * What checks are and what they produce. A check is one module exporting `{ meta, run }`; `run` returns
+ * findings carrying data for the message, never a formatted string, so every formatter words it alike.
+ */
+import type { Baseline, PermissionRate } from "../baseline/rates.js";
+import type { Manifest, SourceLocation } from "../extract/model.js";
+import type { CategoryChoice } from "./category.js";
+
+/** SARIF's levels, most severe first. */
+export const LEVELS = ["error", "warning", "note"] as const;
+export type Level = (typeof LEVELS)[number];
+
+export function levelRank(level: Level): number {
+  return LEVELS.length - LEVELS.indexOf(level);
+}
+
+export interface CheckMeta {
+  id: string;
+  title: string;
+  /** One sentence for SARIF's fullDescription and the docs' first line. */
+  description: string;
+  /** Path of the check's documentation page, from the project root. */
+  docs: string;
+  defaultLevel: Level;
+}
+
+export interface CheckContext {
+  manifest: Manifest;
+  baseline: Baseline;
+  category: CategoryChoice;
+  /** Memoized rate lookups for this app's category. */
+  rate(permission: string): PermissionRate;
+}
+
+/** Data a finding carries; each check documents its own keys. */
+export type FindingData = Record<string, string | number | boolean | string[] | undefined>;
+
+export interface Finding {
+  checkId: string;
+  level: Level;
+  /** The permission or component the finding concerns. */
+  subject: string;
+  location: SourceLocation;
+  data: FindingData;
+}
+
+export interface Check {
+  meta: CheckMeta;
+  run(ctx: CheckContext): Omit<Finding, "level" | "checkId">[];
+  /** Words the message from the finding's data. */
+  message(f: Pick<Finding, "subject" | "data">): string;
+}
