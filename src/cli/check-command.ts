@@ -76,7 +76,9 @@ export async function checkCommand(files: string[], o: Opts, io: Io): Promise<nu
 }
 
 async function recordsCommand(path: string, o: Opts, judge: Judge, options: JudgeOptions, maxRisk: number | undefined, io: Io): Promise<number> {
-  const corpus = openCorpus(path, corpusOptions(o as Record<string, string | string[] | undefined>));
+  // --format is the output format here; the corpus format is told from its content.
+  const { format: _output, ...rest } = o;
+  const corpus = openCorpus(path, corpusOptions(rest as Record<string, string | string[] | undefined>));
   let gated = false;
   let buffer = "";
   for await (const record of corpus.records) {
