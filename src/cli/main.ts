@@ -112,6 +112,39 @@ export async function run(argv: string[], io: Io = defaultIo): Promise<number> {
     });
 
   program
+    .command("trim")
+    .description("for developers: permissions worth removing, most risk-lowering first, with the manifest change")
+    .argument("<file>", "the app's AndroidManifest.xml (source or merged) or APK")
+    .option("-c, --category <name>", "category to judge against")
+    .option("--categories <file>", "CSV mapping package names to categories")
+    .option("-b, --baseline <file>", "baseline file (default: the bundled baselines/default.json)")
+    .addOption(new Option("-f, --format <format>", "output format").choices(["text", "json"]).default("text"))
+    .option("--merge-report <file>", "the build's manifest-merger report, to name the library that adds each permission")
+    .option("--source <file>", "the app's source AndroidManifest.xml, when <file> is an APK or merged manifest")
+    .option("--keep <permission>", "leave this permission alone (repeatable)", collect)
+    .option("--write <file>", "write a patched copy of the source manifest")
+    .option("--in-place", "patch the source manifest itself")
+    .option("--level <check=level>", "override a check's level (repeatable)", collect)
+    .action(async (file: string, o: Record<string, string | string[] | boolean | undefined>) => {
+      const { trimCommand } = await import("./trim-delta-command.js");
+      exitCode = await trimCommand(file, o, io);
+    });
+
+  program
+    .command("delta")
+    .description("for reviewers of an update: what changed between two versions of an app")
+    .argument("<old>", "the earlier APK or manifest")
+    .argument("<new>", "the later APK or manifest")
+    .option("-c, --category <name>", "category to judge against")
+    .option("--categories <file>", "CSV mapping package names to categories")
+    .option("-b, --baseline <file>", "baseline file (default: the bundled baselines/default.json)")
+    .addOption(new Option("-f, --format <format>", "output format").choices(["text", "json"]).default("text"))
+    .action(async (before: string, after: string, o: Record<string, string | string[] | boolean | undefined>) => {
+      const { deltaCommand } = await import("./trim-delta-command.js");
+      exitCode = await deltaCommand(before, after, o, io);
+    });
+
+  program
     .command("fold")
     .description("add up baselines learned on separate corpora (counts merge exactly; risk models do not)")
     .argument("<baseline...>", "baseline files")

@@ -1,13 +1,16 @@
 import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import Ajv from "ajv-draft-04";
+import { createRequire } from "node:module";
 import { describe, expect, it } from "vitest";
 import { EXIT } from "../../src/cli/exit-codes.js";
 import { manifestText } from "../helpers/judge.js";
 import { APK_DIR, FIXTURES, ROOT } from "../helpers/paths.js";
-import { cli } from "./facts.test.js";
+import { cli } from "../helpers/cli.js";
 
+// ajv-draft-04 is CommonJS with a default export; require it to get the class itself.
+type Validator = ((data: unknown) => boolean) & { errors?: unknown[] | null };
+const Ajv = (createRequire(import.meta.url)("ajv-draft-04") as { default: new (opts: { allErrors: boolean; strict: boolean }) => { compile(schema: object): Validator } }).default;
 const dir = mkdtempSync(join(tmpdir(), "overask-check-"));
 const DEMO = `${ROOT}baselines/harbourview-demo.json`;
 

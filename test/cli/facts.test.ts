@@ -6,16 +6,7 @@ import { run } from "../../src/cli/main.js";
 import { EXIT } from "../../src/cli/exit-codes.js";
 import { APK_DIR, APK_VARIANTS, FIXTURES } from "../helpers/paths.js";
 
-export async function cli(args: string[], env: NodeJS.ProcessEnv = {}) {
-  let stdout = "";
-  let stderr = "";
-  const code = await run(args, {
-    stdout: { write: (s: string) => (stdout += s), isTTY: false },
-    stderr: { write: (s: string) => (stderr += s), isTTY: false },
-    env,
-  });
-  return { code, stdout, stderr };
-}
+import { cli } from "../helpers/cli.js";
 
 const dir = mkdtempSync(join(tmpdir(), "overask-cli-"));
 

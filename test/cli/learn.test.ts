@@ -4,7 +4,7 @@ import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { EXIT } from "../../src/cli/exit-codes.js";
 import { ROOT } from "../helpers/paths.js";
-import { cli } from "./facts.test.js";
+import { cli } from "../helpers/cli.js";
 
 const CORPUS = `${ROOT}fixtures/corpus/harbourview.jsonl`;
 const dir = mkdtempSync(join(tmpdir(), "overask-cli-learn-"));

@@ -1,0 +1,75 @@
+/** Formatters for `overask trim` and `overask delta`. */
+import type { Delta } from "../score/delta.js";
+import { snippetFor, type TrimPlan } from "../score/trim.js";
+import { TOOLS_NS } from "../extract/xml-tree.js";
+import { TOOL_VERSION } from "../version.js";
+import { messageOf } from "./check.js";
+import { PLAIN, wrap, type Style } from "./style.js";
+
+const pct = (x: number) => `${(100 * x).toFixed(x < 0.1 ? 1 : 0)}%`;
+const short = (n: string) => n.replace(/^android\.permission\./, "");
+
+export function trimToText(plan: TrimPlan, file: string, caution: string | undefined, s: Style = PLAIN): string {
+  const out: string[] = [];
+  out.push(s.bold(`${plan.package}: ${plan.candidates.length} permission${plan.candidates.length === 1 ? "" : "s"} worth removing or limiting`));
+  out.push(...wrap(`  ${file}`, 80, 2));
+  if (plan.risk !== undefined) {
+    out.push(`  risk now ${pct(plan.risk)}${plan.riskWithoutAll !== undefined ? `; with every change below ${pct(plan.riskWithoutAll)}` : ""}`);
+    if (caution) out.push(...wrap(`  ${caution}`, 80, 2).map((l) => s.dim(l)));
+  }
+  plan.candidates.forEach((c, i) => {
+    out.push("");
+    const risk = plan.risk !== undefined && c.riskWithout !== undefined ? `  risk ${pct(plan.risk)} → ${pct(c.riskWithout)}` : "";
+    out.push(`${String(i + 1).padStart(3)}. ${s.bold(short(c.permission))}${risk}`);
+    out.push(...wrap(`     why: ${c.reasons.map((r) => r.checkId).join(", ")}`, 80, 10).map((l) => s.dim(l)));
+    if (c.libraries?.length) out.push(...wrap(`     added by ${c.libraries.join(", ")}`, 80, 10));
+    const how =
+      c.action.kind === "limit"
+        ? `     keep it for older devices only${c.element?.source.line ? ` (line ${c.element.source.line})` : ""}:`
+        : c.action.kind === "merge-remove"
+          ? `     a library adds it; drop it when manifests merge (needs xmlns:tools="${TOOLS_NS}"):`
+          : c.element?.source.line
+            ? `     delete line ${c.element.source.line}:`
+            : "     delete it from your manifest; if a library adds it, use tools:node=\"remove\" instead:";
+    out.push(...wrap(how, 80, 5));
+    out.push(`       ${snippetFor(c)}`);
+  });
+  if (plan.typos.length) {
+    out.push("", s.bold("Fix, do not remove"));
+    for (const t of plan.typos) out.push(...wrap(`  ${t.permission} → ${t.nearest} (a likely typo: the app does not get the permission it meant)`, 80, 4));
+  }
+  if (plan.candidates.length === 0 && plan.typos.length === 0) out.push("", "  nothing to trim: no requested permission is uncommon, ungrantable or without effect");
+  return `${out.join("\n")}\n`;
+}
+
+export function trimToJson(plan: TrimPlan, file: string): string {
+  return `${JSON.stringify({ tool: "overask", version: TOOL_VERSION, schemaVersion: 1, file, ...plan, candidates: plan.candidates.map((c) => ({ ...c, snippet: snippetFor(c) })) }, null, 2)}\n`;
+}
+
+export function deltaToText(d: Delta, files: [string, string], caution: string | undefined, s: Style = PLAIN): string {
+  const v = (x: Delta["before"]) => [x.versionName, x.versionCode !== undefined ? `(code ${x.versionCode})` : undefined].filter(Boolean).join(" ") || "no version";
+  const out: string[] = [];
+  out.push(s.bold(d.samePackage ? `${d.after.package}: ${v(d.before)} → ${v(d.after)}` : `${d.before.package} → ${d.after.package} (different packages)`));
+  out.push(...wrap(`  ${files[0]} → ${files[1]}`, 80, 4));
+  if (d.before.targetSdk !== d.after.targetSdk) out.push(`  targetSdk ${d.before.targetSdk ?? "—"} → ${d.after.targetSdk ?? "—"}`);
+  if (d.before.risk !== undefined && d.after.risk !== undefined) {
+    out.push(`  risk ${pct(d.before.risk)} (${d.before.band}) → ${pct(d.after.risk)} (${d.after.band})`);
+    if (caution) out.push(...wrap(`  ${caution}`, 80, 2).map((l) => s.dim(l)));
+  }
+  out.push("", s.bold(`Permissions added (${d.added.length})`));
+  for (const a of d.added) out.push(`  + ${short(a.permission)}${a.base ? s.dim(`  ${[a.base, ...(a.flags ?? [])].join("|")}`) : ""}`);
+  out.push("", s.bold(`Permissions removed (${d.removed.length})`));
+  for (const r of d.removed) out.push(`  - ${short(r)}`);
+  out.push("", s.bold(`Newly uncommon for the category (${d.newlyUncommon.length})`));
+  for (const f of d.newlyUncommon) out.push(`  ${short(f.subject)}`, ...wrap(`      ${messageOf(f)}`, 80, 6).map((l) => s.dim(l)));
+  out.push("", s.bold(`Special access (${d.specialAccess.added.length} new, ${d.specialAccess.removed.length} gone)`));
+  for (const f of d.specialAccess.added) out.push(...wrap(`  + ${f.subject}: ${messageOf(f)}`, 80, 6));
+  for (const f of d.specialAccess.removed) out.push(...wrap(`  - ${f.subject}`, 80, 6));
+  out.push("", s.bold(`Newly exported components (${d.newlyExported.length})`));
+  for (const c of d.newlyExported) out.push(`  + ${c.kind} ${c.name}`);
+  return `${out.join("\n")}\n`;
+}
+
+export function deltaToJson(d: Delta, files: [string, string], caution: string | undefined): string {
+  return `${JSON.stringify({ tool: "overask", version: TOOL_VERSION, schemaVersion: 1, files, caution, ...d, newlyUncommon: d.newlyUncommon.map((f) => ({ ...f, message: messageOf(f) })) }, null, 2)}\n`;
+}

@@ -1,0 +1,67 @@
+/**
+ * `delta`: what changed between two versions of an app that a reviewer of an update needs to see.
+ */
+import { requestedPermissionNames } from "../extract/model.js";
+import type { CheckResult } from "./check-app.js";
+import type { Finding } from "./types.js";
+
+export interface AppVersion {
+  package: string;
+  versionName?: string;
+  versionCode?: number;
+  targetSdk?: number;
+  risk?: number;
+  band?: string;
+}
+
+export interface Delta {
+  before: AppVersion;
+  after: AppVersion;
+  samePackage: boolean;
+  added: { permission: string; base?: string; flags?: string[] }[];
+  removed: string[];
+  /** Uncommon-permission findings of the new version that the old one did not have. */
+  newlyUncommon: Finding[];
+  /** Special-access components that appeared or disappeared. */
+  specialAccess: { added: Finding[]; removed: Finding[] };
+  /** Components other apps can reach now that they could not before. */
+  newlyExported: { kind: string; name: string }[];
+}
+
+function version(r: CheckResult): AppVersion {
+  const m = r.manifest;
+  return {
+    package: m.package,
+    ...(m.versionName !== undefined ? { versionName: m.versionName } : {}),
+    ...(m.versionCode !== undefined ? { versionCode: m.versionCode } : {}),
+    ...(m.targetSdk !== undefined ? { targetSdk: m.targetSdk } : {}),
+    ...(r.risk ? { risk: r.risk.probability, band: r.risk.band } : {}),
+  };
+}
+
+const RATE_CHECKS = new Set(["uncommon-for-category", "sensitive-uncommon"]);
+
+export function compareVersions(before: CheckResult, after: CheckResult): Delta {
+  const old = new Set(requestedPermissionNames(before.manifest));
+  const now = new Set(requestedPermissionNames(after.manifest));
+  const facts = new Map(after.manifest.usesPermissions.map((p) => [p.name, p.facts]));
+  const oldRate = new Set(before.findings.filter((f) => RATE_CHECKS.has(f.checkId)).map((f) => f.subject));
+  const special = (r: CheckResult) => r.findings.filter((f) => f.checkId === "special-access-component");
+  const key = (f: Finding) => `${f.subject}\u0000${f.data.permission}`;
+  const oldSpecial = new Set(special(before).map(key));
+  const newSpecial = new Set(special(after).map(key));
+  const wasExported = new Set(before.manifest.components.filter((c) => c.effectiveExported).map((c) => `${c.kind} ${c.name}`));
+  return {
+    before: version(before),
+    after: version(after),
+    samePackage: before.manifest.package === after.manifest.package,
+    added: [...now].filter((p) => !old.has(p)).sort().map((p) => ({ permission: p, ...(facts.get(p)?.base ? { base: facts.get(p)!.base } : {}), ...(facts.get(p)?.flags ? { flags: facts.get(p)!.flags } : {}) })),
+    removed: [...old].filter((p) => !now.has(p)).sort(),
+    newlyUncommon: after.findings.filter((f) => RATE_CHECKS.has(f.checkId) && !oldRate.has(f.subject)),
+    specialAccess: {
+      added: special(after).filter((f) => !oldSpecial.has(key(f))),
+      removed: special(before).filter((f) => !newSpecial.has(key(f))),
+    },
+    newlyExported: after.manifest.components.filter((c) => c.effectiveExported && !wasExported.has(`${c.kind} ${c.name}`)).map((c) => ({ kind: c.kind, name: c.name })),
+  };
+}

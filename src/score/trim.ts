@@ -1,0 +1,108 @@
+/**
+ * `trim`: the requested permissions worth removing (or limiting), ranked by how much each lowers the
+ * risk, with the exact change to the source manifest.
+ */
+import { requestedPermissionNames, type Manifest, type RequestedPermission } from "../extract/model.js";
+import type { CheckResult } from "./check-app.js";
+import type { PermissionOrigin } from "./merge-report.js";
+import { levelRank, type Level } from "./types.js";
+
+const TRIM_CHECKS = new Set(["sensitive-uncommon", "uncommon-for-category", "ungrantable-permission", "no-effect-at-target", "unknown-permission"]);
+
+export type TrimAction =
+  /** Delete the element from the app's own manifest. */
+  | { kind: "delete" }
+  /** Keep the request for older devices only. */
+  | { kind: "limit"; maxSdkVersion: number }
+  /** The permission comes from a library: drop it at merge time. */
+  | { kind: "merge-remove" };
+
+export interface TrimCandidate {
+  permission: string;
+  /** Check ids and levels that make it worth a look, most severe first. */
+  reasons: { checkId: string; level: Level; message?: string }[];
+  action: TrimAction;
+  /** The element in the given manifest, when it declares the request. */
+  element?: RequestedPermission;
+  /** Risk without this permission (when the baseline has a model). */
+  riskWithout?: number;
+  libraries?: string[];
+}
+
+export interface TrimPlan {
+  package: string;
+  risk?: number;
+  riskWithoutAll?: number;
+  candidates: TrimCandidate[];
+  /** Likely typos: not trimmed, but to be fixed. */
+  typos: { permission: string; nearest: string }[];
+}
+
+/**
+ * `source` is the plain manifest a patch would change: the input itself when it is one, or the app's
+ * source manifest given beside a merged manifest or APK. A permission the source does not declare
+ * comes from a library and is dropped at merge time.
+ */
+export function planTrim(
+  result: CheckResult,
+  options: { origins?: Map<string, PermissionOrigin>; riskWithout?: (perms: string[]) => number; source?: Manifest } = {},
+): TrimPlan {
+  const m: Manifest = result.manifest;
+  const byPermission = new Map<string, TrimCandidate>();
+  const typos: TrimPlan["typos"] = [];
+  const source = options.source ?? (m.input.kind === "plain-xml" ? m : undefined);
+  for (const f of result.findings) {
+    if (!TRIM_CHECKS.has(f.checkId)) continue;
+    if (f.checkId === "unknown-permission" && f.data.likelyTypo) {
+      typos.push({ permission: f.subject, nearest: String(f.data.nearest) });
+      continue;
+    }
+    const element = source?.usesPermissions.find((p) => p.name === f.subject && !p.removedByTools);
+    let c = byPermission.get(f.subject);
+    if (!c) {
+      const origin = options.origins?.get(f.subject);
+      const fromLibrary = origin ? origin.libraries.length > 0 && !origin.app && !element : source !== undefined && !element;
+      c = { permission: f.subject, reasons: [], action: fromLibrary ? { kind: "merge-remove" } : { kind: "delete" } };
+      if (element) c.element = element;
+      if (origin?.libraries.length) c.libraries = origin.libraries;
+      byPermission.set(f.subject, c);
+    }
+    c.reasons.push({ checkId: f.checkId, level: f.level });
+    if (f.checkId === "no-effect-at-target" && typeof f.data.limitTo === "number" && c.action.kind === "delete") {
+      c.action = { kind: "limit", maxSdkVersion: f.data.limitTo };
+    }
+  }
+  const candidates = [...byPermission.values()];
+  const requested = requestedPermissionNames(m);
+  if (options.riskWithout) {
+    for (const c of candidates) c.riskWithout = options.riskWithout(requested.filter((p) => p !== c.permission));
+  }
+  for (const c of candidates) c.reasons.sort((a, b) => levelRank(b.level) - levelRank(a.level));
+  candidates.sort(
+    (a, b) =>
+      (a.riskWithout ?? 0) - (b.riskWithout ?? 0) ||
+      levelRank(b.reasons[0].level) - levelRank(a.reasons[0].level) ||
+      a.permission.localeCompare(b.permission),
+  );
+  const plan: TrimPlan = { package: m.package, candidates, typos };
+  if (result.risk) {
+    plan.risk = result.risk.probability;
+    if (options.riskWithout && candidates.length) {
+      const gone = new Set(candidates.filter((c) => c.action.kind !== "limit").map((c) => c.permission));
+      plan.riskWithoutAll = options.riskWithout(requested.filter((p) => !gone.has(p)));
+    }
+  }
+  return plan;
+}
+
+/** The manifest snippet that carries out a candidate's action. */
+export function snippetFor(c: TrimCandidate): string {
+  switch (c.action.kind) {
+    case "limit":
+      return `<uses-permission android:name="${c.permission}" android:maxSdkVersion="${c.action.maxSdkVersion}" />`;
+    case "merge-remove":
+      return `<uses-permission android:name="${c.permission}" tools:node="remove" />`;
+    case "delete":
+      return `<uses-permission android:name="${c.permission}" />`;
+  }
+}
