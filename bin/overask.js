@@ -1,6 +1,7 @@
 #!/usr/bin/env node
-// Entry point of the `overask` command. The TypeScript sources are compiled to dist/ by `npm run build`
-// (run automatically by `npm ci` / `npm install` through the `prepare` script).
-import { run } from "../dist/cli/main.js";
+// Entry point of the `overask` command. The TypeScript sources are compiled by `npm run build` (run
+// automatically by `npm ci` / `npm install` through the `prepare` script): the library to dist/, and the
+// CLI to one bundle in dist/bundle/ so that it starts quickly.
+import { run } from "../dist/bundle/main.js";
 
 process.exitCode = await run(process.argv.slice(2));

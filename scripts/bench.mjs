@@ -22,7 +22,7 @@ const REPS = Number(opt("reps", "41"));
 const OUT = join(ROOT, "bench-out");
 mkdirSync(OUT, { recursive: true });
 
-const ONLY = opt("only", "extract,learn").split(",");
+const ONLY = opt("only", "extract,learn,check").split(",");
 const median = (xs) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 const ms = (t0) => Number(process.hrtime.bigint() - t0) / 1e6;
 const fmt = (x) => (x < 10 ? x.toFixed(3) : x.toFixed(1));
@@ -244,6 +244,44 @@ if (ONLY.includes("learn")) {
   console.log(`floor (read + JSON.parse every line): ${floor.seconds.toFixed(1)} s, peak RSS ${floor.rssMb.toFixed(0)} MB`);
   console.log(`learn without a model:                ${noModel.seconds.toFixed(1)} s (${(noModel.seconds / floor.seconds).toFixed(2)}x the floor), peak RSS ${noModel.rssMb.toFixed(0)} MB  (goal < 60 s, < 1 GB)`);
   console.log(`learn with the model:                 ${withModel.seconds.toFixed(1)} s, peak RSS ${withModel.rssMb.toFixed(0)} MB, trained on ${sample ? `a sample of ${sample.taken} of ${sample.of}` : "all"} labeled rows`);
+}
+
+// ---------------------------------------------------------------------------------------------
+if (ONLY.includes("check")) {
+  header("check: one small APK, whole process, against starting node itself");
+  const apk = join(ROOT, "fixtures/apk/tidewatch.apk");
+  const runs = (argv) => {
+    const xs = [];
+    for (let i = 0; i < 15; i++) {
+      const t = process.hrtime.bigint();
+      spawnSync(process.execPath, argv, { stdio: "ignore" });
+      xs.push(ms(t));
+    }
+    return median(xs);
+  };
+  const floor = runs(["-e", "0"]);
+  const check = runs([join(ROOT, "bin/overask.js"), "check", apk]);
+  const facts = runs([join(ROOT, "bin/overask.js"), "facts", apk]);
+  console.log(`node -e 0 (floor):        ${fmt(floor)} ms`);
+  console.log(`overask check small.apk:  ${fmt(check)} ms (${(check / floor).toFixed(2)}x the floor; goal < 150 ms)`);
+  console.log(`overask facts small.apk:  ${fmt(facts)} ms (${(facts / floor).toFixed(2)}x the floor)`);
+
+  const ROWS = Number(opt("check-rows", "1000000"));
+  header(`check --records: ${ROWS.toLocaleString("en")} synthetic JSONL records, one process (one core)`);
+  const path = join(OUT, `corpus-${ROWS}.jsonl`);
+  if (!existsSync(path)) {
+    console.log(`(generate it first with --only learn --learn-rows ${ROWS} --keep)`);
+  } else {
+    const floorT = process.hrtime.bigint();
+    spawnSync(process.execPath, ["-e", `const rl=require("readline").createInterface({input:require("fs").createReadStream(${JSON.stringify(path)},{highWaterMark:1<<20}),crlfDelay:Infinity});let n=0;rl.on("line",l=>{if(l){const o=JSON.parse(l);process.stdout.write(JSON.stringify({id:o.id})+"\\n")}});`], { stdio: ["ignore", "ignore", "inherit"] });
+    const floorS = ms(floorT) / 1000;
+    const t = process.hrtime.bigint();
+    const r = spawnSync("/usr/bin/time", ["-f", "%M", process.execPath, join(ROOT, "bin/overask.js"), "check", "--records", path, "--baseline", join(ROOT, "baselines/harbourview-demo.json")], { stdio: ["ignore", "ignore", "pipe"], encoding: "utf8" });
+    const seconds = ms(t) / 1000;
+    const rss = Number(r.stderr.trim().split("\n").pop()) / 1024;
+    console.log(`floor (read, parse and write one line per record): ${floorS.toFixed(1)} s, ${Math.round(ROWS / floorS).toLocaleString("en")} records/s`);
+    console.log(`check --records: ${seconds.toFixed(1)} s, ${Math.round(ROWS / seconds).toLocaleString("en")} records/s (goal ≥ 20,000), ${(seconds / floorS).toFixed(2)}x the floor, peak RSS ${rss.toFixed(0)} MB`);
+  }
 }
 
 if (!args.includes("--keep")) rmSync(OUT, { recursive: true, force: true });

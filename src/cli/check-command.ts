@@ -1,5 +1,6 @@
 /** `overask check`: reading inputs, judging them, printing, and the exit code that gates a build. */
-import { fileURLToPath } from "node:url";
+import { join } from "node:path";
+import { packageRoot } from "../util/package-root.js";
 import { readBaselineFile } from "../baseline/baseline-file.js";
 import { openCorpus } from "../baseline/corpus/index.js";
 import { InputError } from "../errors.js";
@@ -16,7 +17,7 @@ import { EXIT } from "./exit-codes.js";
 import { corpusOptions, UsageError } from "./learn-command.js";
 import type { Io } from "./main.js";
 
-export const DEFAULT_BASELINE = fileURLToPath(new URL("../../baselines/default.json", import.meta.url));
+export const DEFAULT_BASELINE = join(packageRoot(), "baselines/default.json");
 
 type Opts = Record<string, string | string[] | boolean | undefined>;
 

@@ -4,6 +4,8 @@
  * Loaded once, on first use.
  */
 import { readFileSync } from "node:fs";
+import { join } from "node:path";
+import { packageRoot } from "../util/package-root.js";
 import { protectionFromText, type BaseLevel } from "./protection.js";
 
 export const PLATFORM_TABLE_VERSION = "android-34 (framework core/res/AndroidManifest.xml; see src/platform/data/SOURCES.md)";
@@ -22,8 +24,6 @@ export interface PlatformPermission {
   docNote?: string;
 }
 
-// Works from src/platform/ (tests) and dist/platform/ (the built CLI): both sit two levels below the root.
-const DATA_DIR = new URL("../../src/platform/data/", import.meta.url);
 
 let table: Map<string, PlatformPermission> | undefined;
 
@@ -67,7 +67,7 @@ export function parsePlatformTable(tsv: string): Map<string, PlatformPermission>
 
 /** All platform permissions by full name. */
 export function platformPermissions(): ReadonlyMap<string, PlatformPermission> {
-  table ??= parsePlatformTable(readFileSync(new URL("android-platform-permissions.tsv", DATA_DIR), "utf8"));
+  table ??= parsePlatformTable(readFileSync(join(packageRoot(), "src/platform/data/android-platform-permissions.tsv"), "utf8"));
   return table;
 }
 

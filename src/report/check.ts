@@ -41,6 +41,27 @@ export function categoryText(c: CategoryChoice): string {
   return `all categories pooled: ${why}`;
 }
 
+/** A feature's value in words, for the explanation (features.ts defines them). */
+function featureText(feature: string, value: number): string {
+  const count = Math.round(Math.expm1(value));
+  switch (feature) {
+    case "commonOther":
+      return `${count} requested permission${count === 1 ? "" : "s"} common for the category`;
+    case "commonSensitive":
+      return `${count} sensitive permission${count === 1 ? "" : "s"} common for the category`;
+    case "uncommonOther":
+      return `${count} permission${count === 1 ? "" : "s"} uncommon for the category`;
+    case "uncommonSensitive":
+      return `${count} sensitive permission${count === 1 ? "" : "s"} uncommon for the category`;
+    case "anyUncommonSensitive":
+      return value > 0 ? "at least one sensitive permission uncommon for the category" : "no sensitive permission uncommon for the category";
+    case "surprisal":
+      return `how unusual the whole set is (summed surprisal ${value.toFixed(1)})`;
+    default:
+      return `${feature} = ${value}`;
+  }
+}
+
 export function riskLines(r: RiskEstimate, s: Style, width = 80): string[] {
   const out: string[] = [];
   const bandText = r.band === "high" ? s.alert("high") : r.band === "elevated" ? s.warn("elevated") : "low";
@@ -49,7 +70,7 @@ export function riskLines(r: RiskEstimate, s: Style, width = 80): string[] {
   const top = r.contributions.filter((c) => c.logOdds > 0).slice(0, 3);
   if (top.length) {
     out.push("  raised most by:");
-    for (const c of top) out.push(...wrap(`    ${c.description} (${Number.isInteger(c.value) ? c.value : c.value.toFixed(2)})`, width, 6));
+    for (const c of top) out.push(...wrap(`    ${featureText(c.feature, c.value)}`, width, 6));
   }
   const drops = r.whatIf.filter((w) => w.change < -0.0005).slice(0, 5);
   if (drops.length) {

@@ -6,7 +6,7 @@
  */
 import type { StoredModel } from "../baseline/baseline-file.js";
 import { appFeatures, FEATURE_DESCRIPTIONS, FEATURE_NAMES, type FeatureName } from "../baseline/features.js";
-import { modelRisk } from "../baseline/model.js";
+import { modelRisk } from "../baseline/model-risk.js";
 import type { Baseline } from "../baseline/rates.js";
 
 export type Band = "low" | "elevated" | "high";

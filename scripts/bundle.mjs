@@ -1,0 +1,19 @@
+#!/usr/bin/env node
+// Bundles the CLI with esbuild into dist/bundle/: one entry plus chunks that load per command, so that
+// `overask check` starts without loading the learning code, and without resolving dozens of modules.
+// xml2js and cli-progress stay outside the bundle: they are loaded only when needed (createRequire).
+import { build } from "esbuild";
+
+await build({
+  entryPoints: { main: "src/cli/main.ts" },
+  outdir: "dist/bundle",
+  bundle: true,
+  splitting: true,
+  format: "esm",
+  platform: "node",
+  target: "node20",
+  external: ["xml2js", "cli-progress"],
+  banner: { js: 'import { createRequire as __overaskRequire } from "node:module"; const require = __overaskRequire(import.meta.url);' },
+  logLevel: "warning",
+  legalComments: "linked",
+});
