@@ -89,14 +89,17 @@ export async function run(argv: string[], io: Io = defaultIo): Promise<number> {
       exitCode = await learnCommand(corpora, o, io);
     });
 
-  program
-    .command("check")
+  /** The options every judging command shares: which category, which baseline, which format. */
+  const judging = (cmd: Command, formats: string[]) =>
+    cmd
+      .option("-c, --category <name>", "category to judge against (otherwise --categories, then android:appCategory, then all categories pooled)")
+      .option("--categories <file>", "CSV mapping package names to categories (package,category)")
+      .option("-b, --baseline <file>", "baseline file (default: the bundled baselines/default.json)")
+      .addOption(new Option("-f, --format <format>", "output format").choices(formats).default("text"));
+
+  judging(program.command("check"), ["text", "json", "sarif"])
     .description("judge apps against their category's baseline: uncommon permissions, other checks, and the risk estimate")
     .argument("[file...]", "APKs, binary or plain manifests")
-    .option("-c, --category <name>", "category to judge against (otherwise --categories, then android:appCategory, then all categories pooled)")
-    .option("--categories <file>", "CSV mapping package names to categories (package,category)")
-    .option("-b, --baseline <file>", "baseline file (default: the bundled baselines/default.json)")
-    .addOption(new Option("-f, --format <format>", "output format").choices(["text", "json", "sarif"]).default("text"))
     .addOption(new Option("--fail-on <level>", "exit 1 when a finding is at or above this level").choices(["error", "warning", "note"]))
     .option("--max-risk <p>", "exit 1 when an app's risk is above this probability")
     .option("--level <check=level>", "override a check's level: error, warning, note or off (repeatable)", collect)
@@ -111,14 +114,9 @@ export async function run(argv: string[], io: Io = defaultIo): Promise<number> {
       exitCode = await checkCommand(files, o, io);
     });
 
-  program
-    .command("trim")
+  judging(program.command("trim"), ["text", "json"])
     .description("for developers: permissions worth removing, most risk-lowering first, with the manifest change")
     .argument("<file>", "the app's AndroidManifest.xml (source or merged) or APK")
-    .option("-c, --category <name>", "category to judge against")
-    .option("--categories <file>", "CSV mapping package names to categories")
-    .option("-b, --baseline <file>", "baseline file (default: the bundled baselines/default.json)")
-    .addOption(new Option("-f, --format <format>", "output format").choices(["text", "json"]).default("text"))
     .option("--merge-report <file>", "the build's manifest-merger report, to name the library that adds each permission")
     .option("--source <file>", "the app's source AndroidManifest.xml, when <file> is an APK or merged manifest")
     .option("--keep <permission>", "leave this permission alone (repeatable)", collect)
@@ -130,15 +128,10 @@ export async function run(argv: string[], io: Io = defaultIo): Promise<number> {
       exitCode = await trimCommand(file, o, io);
     });
 
-  program
-    .command("delta")
+  judging(program.command("delta"), ["text", "json"])
     .description("for reviewers of an update: what changed between two versions of an app")
     .argument("<old>", "the earlier APK or manifest")
     .argument("<new>", "the later APK or manifest")
-    .option("-c, --category <name>", "category to judge against")
-    .option("--categories <file>", "CSV mapping package names to categories")
-    .option("-b, --baseline <file>", "baseline file (default: the bundled baselines/default.json)")
-    .addOption(new Option("-f, --format <format>", "output format").choices(["text", "json"]).default("text"))
     .action(async (before: string, after: string, o: Record<string, string | string[] | boolean | undefined>) => {
       const { deltaCommand } = await import("./trim-delta-command.js");
       exitCode = await deltaCommand(before, after, o, io);
