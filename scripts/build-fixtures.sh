@@ -51,6 +51,35 @@ build1 flashdeck flashdeck
 build2 townsquare townsquare
 build2 townsquare townsquare-nons --no-xml-namespaces
 
+# App bundle layout and multi-APK archive, from the same demo manifests.
+mkdir -p fixtures/bundle
+aapt2 compile --dir "$APPS/tidewatch/res" -o "$WORK/tw-res.zip"
+aapt2 link --proto-format -I "$FRAMEWORK" --manifest "$APPS/tidewatch/AndroidManifest.xml" -o "$WORK/tidewatch-proto.zip" "$WORK/tw-res.zip"
+aapt2 link --proto-format -I "$FRAMEWORK" --manifest "$APPS/tidewatch-ar/AndroidManifest.xml" -o "$WORK/tidewatch-ar-proto.zip"
+aapt2 link -I "$FRAMEWORK" --manifest "$APPS/tidewatch-ar/AndroidManifest.xml" -o "$WORK/tidewatch-ar.apk"
+# The toolchain's own conversion of the proto build back to binary: the same manifest in both forms.
+aapt2 convert --output-format binary -o fixtures/bundle/tidewatch-from-proto.apk "$WORK/tidewatch-proto.zip"
+python3 - "$WORK" fixtures/bundle "$APK/tidewatch.apk" <<'PY'
+import sys, zipfile
+work, out, base_apk = sys.argv[1:4]
+def copy(src, dst, prefix, rename):
+    with zipfile.ZipFile(src) as z:
+        for info in z.infolist():
+            dst.writestr(zipfile.ZipInfo(prefix + rename.get(info.filename, info.filename), date_time=(1980, 1, 1, 0, 0, 0)), z.read(info.filename), zipfile.ZIP_DEFLATED)
+# An app bundle: <module>/manifest/AndroidManifest.xml (protobuf), <module>/resources.pb, <module>/res/...
+with zipfile.ZipFile(f"{out}/tidewatch.aab", "w") as aab:
+    copy(f"{work}/tidewatch-proto.zip", aab, "base/", {"AndroidManifest.xml": "manifest/AndroidManifest.xml"})
+    copy(f"{work}/tidewatch-ar-proto.zip", aab, "tide_ar/", {"AndroidManifest.xml": "manifest/AndroidManifest.xml"})
+# A multi-APK archive as commonly exchanged: the base APK and a split APK side by side.
+with zipfile.ZipFile(f"{out}/tidewatch-splits.apks", "w") as apks:
+    apks.write(base_apk, "base.apk", zipfile.ZIP_STORED)
+    apks.write(f"{work}/tidewatch-ar.apk", "split_tide_ar.apk", zipfile.ZIP_STORED)
+PY
+unzip -o -q -d "$WORK/twp" "$WORK/tidewatch-proto.zip" AndroidManifest.xml
+cp "$WORK/twp/AndroidManifest.xml" fixtures/bundle/tidewatch-proto-AndroidManifest.pb
+aapt dump permissions "$WORK/tidewatch-ar.apk" > "$DUMPS/tidewatch-ar.permissions.txt"
+aapt dump xmltree fixtures/bundle/tidewatch-from-proto.apk AndroidManifest.xml > "$DUMPS/tidewatch-from-proto.xmltree.txt"
+
 for f in "$APK"/*.apk; do
   v=$(basename "$f" .apk)
   aapt dump permissions "$f" > "$DUMPS/$v.permissions.txt"

@@ -10,6 +10,8 @@ export const LIMITS = {
   MAX_MANIFEST_BYTES: 16 * 1024 * 1024,
   /** Largest resources.arsc we will read to resolve labels; real apps reach tens of MB. */
   MAX_RESOURCE_TABLE_BYTES: 128 * 1024 * 1024,
+  /** Largest APK inside a multi-APK archive that we read into memory. */
+  MAX_NESTED_APK_BYTES: 512 * 1024 * 1024,
   /** Largest compression ratio an archive entry may claim or show (inflated / compressed). */
   MAX_COMPRESSION_RATIO: 1000,
   /** Most entries we accept in an archive's central directory. */

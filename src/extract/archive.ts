@@ -57,7 +57,7 @@ export function openArchiveBytes(bytes: Uint8Array): ArchiveReader {
  * Opens an archive on disk, reading only what is needed from large files. With `only`, the reader
  * lists and reads just the entries of those names (all records of each name, so duplicates still show).
  */
-export function openArchiveFile(path: string, only?: readonly string[]): ArchiveReader {
+export function openArchiveFile(path: string, only?: readonly string[] | ((name: string) => boolean)): ArchiveReader {
   const fd = openSync(path, "r");
   const close = () => closeSync(fd);
   try {
@@ -87,7 +87,10 @@ export function openArchiveFile(path: string, only?: readonly string[]): Archive
     let records: Buffer = Buffer.alloc(cdSize);
     readAt(fd, records, 0, cdSize, cdOffset);
     let count = tail.readUInt16LE(eocd + 10); // EOCD: total number of entries
-    if (only) ({ records, count } = selectRecords(records, new Set(only)));
+    if (only) {
+      const names = typeof only === "function" ? undefined : new Set(only);
+      ({ records, count } = selectRecords(records, typeof only === "function" ? only : (n) => names!.has(n)));
+    }
     // [central directory][end record], the end record pointing at offset 0 and without its comment.
     const end = Buffer.alloc(EOCD_SIZE);
     tail.copy(end, 0, eocd, eocd + EOCD_SIZE);
@@ -106,8 +109,8 @@ export function openArchiveFile(path: string, only?: readonly string[]): Archive
 const CENTRAL_SIGNATURE = 0x02014b50;
 const CENTRAL_HEADER_SIZE = 46;
 
-/** Keeps the central directory records whose names are in `names`, in one pass over the directory. */
-function selectRecords(cd: Buffer, names: ReadonlySet<string>): { records: Buffer; count: number } {
+/** Keeps the central directory records whose names `keep` accepts, in one pass over the directory. */
+function selectRecords(cd: Buffer, keep: (name: string) => boolean): { records: Buffer; count: number } {
   const kept: Buffer[] = [];
   for (let p = 0; p + CENTRAL_HEADER_SIZE <= cd.length; ) {
     if (cd.readUInt32LE(p) !== CENTRAL_SIGNATURE) throw new ArchiveError(`central directory is damaged at byte ${p} of ${cd.length}`);
@@ -115,7 +118,7 @@ function selectRecords(cd: Buffer, names: ReadonlySet<string>): { records: Buffe
     const nameLen = cd.readUInt16LE(p + 28);
     const next = p + CENTRAL_HEADER_SIZE + nameLen + cd.readUInt16LE(p + 30) + cd.readUInt16LE(p + 32);
     if (next > cd.length) throw new ArchiveError(`central directory record at byte ${p} runs past the directory's end`);
-    if (names.has(cd.toString("utf8", p + CENTRAL_HEADER_SIZE, p + CENTRAL_HEADER_SIZE + nameLen))) kept.push(cd.subarray(p, next));
+    if (keep(cd.toString("utf8", p + CENTRAL_HEADER_SIZE, p + CENTRAL_HEADER_SIZE + nameLen))) kept.push(cd.subarray(p, next));
     p = next;
   }
   return { records: Buffer.concat(kept), count: kept.length };

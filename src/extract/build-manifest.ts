@@ -126,6 +126,8 @@ export function buildManifest(doc: XmlDocument, input: InputInfo, resolve?: Refe
     input,
     notes: rd.notes,
   };
+  const split = rd.plainAttr(root, "split");
+  if (split) m.split = valueToText(split.value);
   const versionCode = rd.int(root, "versionCode");
   if (versionCode !== undefined) m.versionCode = versionCode >>> 0;
   const versionName = rd.string(root, "versionName");

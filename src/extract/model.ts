@@ -13,12 +13,12 @@ export interface SourceLocation {
   line?: number;
 }
 
-export type InputKind = "apk" | "binary-xml" | "plain-xml";
+export type InputKind = "apk" | "app-bundle" | "multi-apk" | "binary-xml" | "proto-xml" | "plain-xml";
 
 export interface InputInfo {
   kind: InputKind;
   /** Storage of the XML itself. */
-  encoding: "binary-utf8" | "binary-utf16" | "text";
+  encoding: "binary-utf8" | "binary-utf16" | "protobuf" | "text";
   /** For archives: the entry the manifest was read from, and how it was stored. */
   entry?: { name: string; method: "stored" | "deflated"; compressedSize: number; size: number };
   /** Whether a resources.arsc was available to resolve references. */
@@ -44,6 +44,8 @@ export interface PermissionFacts {
 
 export interface RequestedPermission {
   name: string;
+  /** For app bundles and multi-APK archives: the module (`base`, a feature module) or split that requests it. */
+  module?: string;
   element: "uses-permission" | "uses-permission-sdk-23" | "uses-permission-sdk-m";
   maxSdkVersion?: number;
   /** `tools:node="remove"` in a source manifest: the manifest merger drops this request. */
@@ -145,6 +147,10 @@ export interface Manifest {
   queries: Queries;
   metaData: MetaData[];
   input: InputInfo;
+  /** The `split` attribute of a split APK's manifest. */
+  split?: string;
+  /** For app bundles and multi-APK archives: each module or split and the permissions its manifest requests. */
+  modules?: { name: string; kind: "base" | "feature" | "split"; permissions: string[] }[];
   /** Things a reader should know about how the manifest was read (duplicates, ignored values). */
   notes: string[];
 }

@@ -37,7 +37,7 @@ export interface XmlElement {
 export interface XmlDocument {
   root: XmlElement;
   /** How the document was stored. */
-  encoding: "binary-utf8" | "binary-utf16" | "text";
+  encoding: "binary-utf8" | "binary-utf16" | "protobuf" | "text";
   /** Namespace declarations, in document order. */
   namespaces: { prefix: string; uri: string }[];
 }

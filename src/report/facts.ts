@@ -28,8 +28,15 @@ export function factsToText(results: FactsResult[], style: Style = PLAIN): strin
 }
 
 function inputText(m: Manifest): string {
-  const kind = { apk: "APK", "binary-xml": "binary manifest", "plain-xml": "source manifest" }[m.input.kind];
-  const enc = { "binary-utf8": "UTF-8 strings", "binary-utf16": "UTF-16 strings", text: "text" }[m.input.encoding];
+  const kind = {
+    apk: "APK",
+    "app-bundle": "app bundle",
+    "multi-apk": "multi-APK archive",
+    "binary-xml": "binary manifest",
+    "proto-xml": "protobuf manifest",
+    "plain-xml": "source manifest",
+  }[m.input.kind];
+  const enc = { "binary-utf8": "UTF-8 strings", "binary-utf16": "UTF-16 strings", protobuf: "protobuf XML", text: "text" }[m.input.encoding];
   return m.input.kind === "plain-xml" ? kind : `${kind}, ${enc}`;
 }
 
@@ -47,6 +54,7 @@ function permissionNotes(p: RequestedPermission): string {
   if (p.maxSdkVersion !== undefined) notes.push(`up to SDK ${p.maxSdkVersion}`);
   if (p.element !== "uses-permission") notes.push(`<${p.element}>`);
   if (p.removedByTools) notes.push('tools:node="remove"');
+  if (p.module && p.module !== "base") notes.push(`from ${p.module}`);
   return notes.join(", ");
 }
 

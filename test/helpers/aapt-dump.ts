@@ -69,9 +69,12 @@ export function diffAgainstDump(el: XmlElement, d: DumpElement, where = ""): str
   if (el.name !== d.name) return `${here}: element ${el.name} decoded, ${d.name} dumped`;
   if ((el.line ?? 0) !== d.line) return `${here}: line ${el.line} decoded, ${d.line} dumped`;
   if (el.attributes.length !== d.attributes.length) return `${here}: ${el.attributes.length} attributes decoded, ${d.attributes.length} dumped`;
-  for (let i = 0; i < d.attributes.length; i++) {
-    const a = el.attributes[i];
-    const b = d.attributes[i];
+  // Compared by name: compiled binary XML orders attributes by resource id, the protobuf form by source.
+  const mine = [...el.attributes].sort((x, y) => (x.storedName ?? x.name).localeCompare(y.storedName ?? y.name));
+  const theirs = [...d.attributes].sort((x, y) => x.name.localeCompare(y.name));
+  for (let i = 0; i < theirs.length; i++) {
+    const a = mine[i];
+    const b = theirs[i];
     if ((a.storedName ?? a.name) !== b.name && a.name !== b.name) return `${here}@${b.name}: name ${a.name} decoded`;
     if (b.id !== undefined && a.resourceId !== b.id) return `${here}@${b.name}: id ${a.resourceId} decoded, ${b.id} dumped`;
     const why = valueDiff(a.value, b.value);

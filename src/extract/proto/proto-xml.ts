@@ -1,0 +1,154 @@
+/**
+ * Decoder for the protobuf XML format of the Android resource toolchain (see resources.proto beside this
+ * file): the manifest of an app bundle module, or of an `aapt2 link --proto-format` build. Bytes in, the
+ * same XmlDocument as the binary and plain readers out; the manifest model is then built as for them.
+ */
+import { readFileSync } from "node:fs";
+import { join } from "node:path";
+import protobuf from "protobufjs";
+import { BinaryXmlError } from "../../errors.js";
+import { packageRoot } from "../../util/package-root.js";
+import { LIMITS } from "../../limits.js";
+import { checkLimit } from "../binary/reader.js";
+import { typedValue, type TypedValue } from "../binary/values.js";
+import { ANDROID_ATTRIBUTE_NAMES } from "../../platform/android-attributes.js";
+import { ANDROID_NS, adoptChild, type XmlAttribute, type XmlDocument, type XmlElement } from "../xml-tree.js";
+
+let root: protobuf.Root | undefined;
+
+function protoType(name: string): protobuf.Type {
+  root ??= protobuf.parse(readFileSync(join(packageRoot(), "src/extract/proto/resources.proto"), "utf8"), { keepCase: true }).root;
+  return root.lookupType(`overask.aapt.${name}`);
+}
+
+const XmlNode = () => protoType("XmlNode");
+
+interface PbTable {
+  package?: { package_id?: { id?: number }; type?: { type_id?: { id?: number }; entry?: { entry_id?: { id?: number }; config_value?: { config?: Uint8Array; value?: { item?: PbItem } }[] }[] }[] }[];
+}
+
+/**
+ * A bundle module's resources.pb, as a resolver of references to their default-configuration values
+ * (following references up to MAX_REFERENCE_HOPS, as for resources.arsc).
+ */
+export function protoResourceResolver(bytes: Uint8Array): (id: number) => TypedValue | undefined {
+  checkLimit("MAX_RESOURCE_TABLE_BYTES", bytes.length, "resource table has a size in bytes of");
+  let table: PbTable;
+  try {
+    const type = protoType("ResourceTable");
+    table = type.toObject(type.decode(bytes), { defaults: false, longs: Number, enums: Number }) as PbTable;
+  } catch (e) {
+    throw new BinaryXmlError(`not a protobuf resource table (${(e as Error).message})`);
+  }
+  const values = new Map<number, TypedValue>();
+  for (const pkg of table.package ?? []) {
+    for (const type of pkg.type ?? []) {
+      for (const entry of type.entry ?? []) {
+        const id = (((pkg.package_id?.id ?? 0) << 24) | ((type.type_id?.id ?? 0) << 16) | (entry.entry_id?.id ?? 0)) >>> 0;
+        const def = entry.config_value?.find((cv) => !cv.config || cv.config.length === 0);
+        if (def?.value?.item) values.set(id, itemValue(def.value.item, undefined));
+      }
+    }
+  }
+  return (id) => {
+    let v = values.get(id >>> 0);
+    for (let hop = 0; v?.kind === "reference" && hop < LIMITS.MAX_REFERENCE_HOPS; hop++) v = values.get(v.id);
+    return v?.kind === "reference" ? undefined : v;
+  };
+}
+
+interface PbPosition { line_number?: number }
+interface PbPrimitive {
+  float_value?: number; dimension_value?: number; fraction_value?: number; int_decimal_value?: number; int_hexadecimal_value?: number;
+  boolean_value?: boolean; color_argb8_value?: number; color_rgb8_value?: number; color_argb4_value?: number; color_rgb4_value?: number;
+  dimension_value_deprecated?: number; fraction_value_deprecated?: number; null_value?: object; empty_value?: object;
+}
+interface PbItem { ref?: { type?: number; id?: number; is_dynamic?: { value?: boolean } }; str?: { value?: string }; raw_str?: { value?: string }; styled_str?: { value?: string }; file?: { path?: string }; prim?: PbPrimitive }
+interface PbAttribute { namespace_uri?: string; name?: string; value?: string; resource_id?: number; compiled_item?: PbItem; source?: PbPosition }
+interface PbElement { namespace_declaration?: { prefix?: string; uri?: string }[]; namespace_uri?: string; name?: string; attribute?: PbAttribute[]; child?: PbNode[] }
+interface PbNode { element?: PbElement; text?: string; source?: PbPosition }
+
+/** Protobuf manifests start with field 1 (the element) as a length-delimited field: byte 0x0a. */
+export function looksLikeProtoXml(bytes: Uint8Array): boolean {
+  return bytes.length > 2 && bytes[0] === 0x0a;
+}
+
+const none = (i: number) => { void i; return undefined; };
+
+function itemValue(item: PbItem, fallback: string | undefined): TypedValue {
+  if (item.ref) {
+    const dynamic = item.ref.is_dynamic?.value === true;
+    return item.ref.type === 1 ? { kind: "attribute", id: (item.ref.id ?? 0) >>> 0, dynamic } : { kind: "reference", id: (item.ref.id ?? 0) >>> 0, dynamic };
+  }
+  if (item.str) return { kind: "string", value: item.str.value ?? "" };
+  if (item.raw_str) return { kind: "string", value: item.raw_str.value ?? "" };
+  if (item.styled_str) return { kind: "string", value: item.styled_str.value ?? "" };
+  if (item.file) return { kind: "string", value: item.file.path ?? "" };
+  const p = item.prim;
+  if (p) {
+    if (p.int_decimal_value !== undefined) return { kind: "int", value: p.int_decimal_value | 0, hex: false };
+    if (p.int_hexadecimal_value !== undefined) return { kind: "int", value: p.int_hexadecimal_value | 0, hex: true };
+    if (p.boolean_value !== undefined) return { kind: "boolean", value: p.boolean_value };
+    if (p.float_value !== undefined) return { kind: "float", value: p.float_value };
+    // Complex values use the same encoding as binary XML's Res_value data.
+    if (p.dimension_value !== undefined) return typedValue(0x05, p.dimension_value | 0, none);
+    if (p.fraction_value !== undefined) return typedValue(0x06, p.fraction_value | 0, none);
+    if (p.color_argb8_value !== undefined) return { kind: "color", argb: p.color_argb8_value >>> 0, form: "argb8" };
+    if (p.color_rgb8_value !== undefined) return { kind: "color", argb: p.color_rgb8_value >>> 0, form: "rgb8" };
+    if (p.color_argb4_value !== undefined) return { kind: "color", argb: p.color_argb4_value >>> 0, form: "argb4" };
+    if (p.color_rgb4_value !== undefined) return { kind: "color", argb: p.color_rgb4_value >>> 0, form: "rgb4" };
+    if (p.null_value !== undefined || p.empty_value !== undefined) return { kind: "null" };
+  }
+  return { kind: "string", value: fallback ?? "" };
+}
+
+export function decodeProtoXml(bytes: Uint8Array): XmlDocument {
+  checkLimit("MAX_MANIFEST_BYTES", bytes.length, "protobuf XML has a size in bytes of");
+  let node: PbNode;
+  try {
+    const type = XmlNode();
+    node = type.toObject(type.decode(bytes), { defaults: false, longs: Number, enums: Number }) as PbNode;
+  } catch (e) {
+    throw new BinaryXmlError(`not a protobuf XML manifest (${(e as Error).message})`);
+  }
+  if (!node.element) throw new BinaryXmlError("protobuf XML holds no element");
+  const namespaces: { prefix: string; uri: string }[] = [];
+  let count = 0;
+  const convert = (pb: PbNode, parent: XmlElement | undefined, depth: number): XmlElement => {
+    count++;
+    checkLimit("MAX_ELEMENT_COUNT", count, "document has an element count of");
+    checkLimit("MAX_DEPTH", depth, "element nesting depth reaches");
+    const e = pb.element!;
+    for (const ns of e.namespace_declaration ?? []) namespaces.push({ prefix: ns.prefix ?? "", uri: ns.uri ?? "" });
+    checkLimit("MAX_ATTRIBUTE_COUNT", e.attribute?.length ?? 0, `element <${e.name}> declares an attribute count of`);
+    const attributes: XmlAttribute[] = (e.attribute ?? []).map((a) => {
+      const attr: XmlAttribute = { name: a.name ?? "", value: a.compiled_item ? itemValue(a.compiled_item, a.value) : { kind: "string", value: a.value ?? "" } };
+      if (a.namespace_uri) attr.ns = a.namespace_uri;
+      if (a.resource_id) {
+        attr.resourceId = a.resource_id >>> 0;
+        // As for binary XML: android attributes are named by their resource id.
+        const known = (attr.resourceId >>> 16) === 0x0101 ? ANDROID_ATTRIBUTE_NAMES.get(attr.resourceId) : undefined;
+        if (known) {
+          if (known !== attr.name) attr.storedName = attr.name;
+          attr.name = known;
+          attr.ns = ANDROID_NS;
+        }
+      }
+      return attr;
+    });
+    const name = e.name ?? "";
+    const el: XmlElement = { name, attributes, children: [], path: `/${name}` };
+    if (e.namespace_uri) el.ns = e.namespace_uri;
+    if (pb.source?.line_number) el.line = pb.source.line_number;
+    if (parent) adoptChild(parent, el);
+    const text: string[] = [];
+    for (const c of e.child ?? []) {
+      if (c.element) convert(c, el, depth + 1);
+      else if (c.text !== undefined && c.text.trim() !== "") text.push(c.text);
+    }
+    if (text.length) el.text = text.join("");
+    return el;
+  };
+  const root = convert(node, undefined, 1);
+  return { root, encoding: "protobuf", namespaces };
+}
