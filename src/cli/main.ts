@@ -114,6 +114,25 @@ export async function run(argv: string[], io: Io = defaultIo): Promise<number> {
       exitCode = await checkCommand(files, o, io);
     });
 
+  program
+    .command("sweep")
+    .description("screen an inventory: every APK, bundle or manifest under a folder, in a list, or in an index CSV")
+    .argument("<source>", "a folder, a list of files (one a line), or an index CSV (file,category)")
+    .requiredOption("-o, --output <file>", "results file (one row per input)")
+    .addOption(new Option("-f, --format <format>", "results format").choices(["jsonl", "csv"]).default("jsonl"))
+    .option("--html <file>", "also write a self-contained HTML report")
+    .option("-j, --jobs <n>", "worker threads (default: the number of cores)")
+    .option("--resume", "continue an interrupted run: skip inputs already in the results with the same size and time")
+    .option("--shard <i/n>", "process the i-th of n stable parts of the inputs (for several machines)")
+    .option("-c, --category <name>", "category for every input (otherwise the index CSV's, then android:appCategory)")
+    .option("--categories <file>", "CSV mapping package names to categories (package,category)")
+    .option("-b, --baseline <file>", "baseline file (default: the bundled baselines/default.json)")
+    .option("--level <check=level>", "override a check's level (repeatable)", collect)
+    .action(async (source: string, o: Record<string, string | string[] | boolean | undefined>) => {
+      const { sweepCommand } = await import("./sweep-command.js");
+      exitCode = await sweepCommand(source, o, io);
+    });
+
   judging(program.command("trim"), ["text", "json"])
     .description("for developers: permissions worth removing, most risk-lowering first, with the manifest change")
     .argument("<file>", "the app's AndroidManifest.xml (source or merged) or APK")

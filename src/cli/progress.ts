@@ -5,28 +5,33 @@ import { createRequire } from "node:module";
 import type * as CliProgress from "cli-progress";
 
 export interface Progress {
-  update(label: string, done: number, total: number): void;
+  /** Progress of `label`: `done` of `total` bytes (shown in MB), or items when `unit` is given. */
+  update(label: string, done: number, total: number, unit?: string): void;
   stop(): void;
 }
 
 const silent: Progress = { update: () => {}, stop: () => {} };
 
+
 export function progressBar(stream: { isTTY?: boolean }): Progress {
   if (!stream.isTTY) return silent;
   const cp = createRequire(import.meta.url)("cli-progress") as typeof CliProgress;
   const bar = new cp.SingleBar(
-    { format: "{label} |{bar}| {percentage}% · {value}/{total} MB · {eta_formatted} left", stream: process.stderr, hideCursor: true, clearOnComplete: true, etaBuffer: 50 },
+    { format: "{label} |{bar}| {percentage}% · {value}/{total} {unit} · {rate}/s · {eta_formatted} left", stream: process.stderr, hideCursor: true, clearOnComplete: true, etaBuffer: 50 },
     cp.Presets.shades_classic,
   );
   let current: string | undefined;
+  let started = 0;
   return {
-    update(label, done, total) {
-      const mb = (x: number) => Math.round(x / 1e5) / 10;
+    update(label, done, total, unit) {
+      const scale = (x: number) => (unit ? x : Math.round(x / 1e5) / 10);
+      const seconds = Math.max(0.001, (Date.now() - started) / 1000);
       if (label !== current) {
         if (current !== undefined) bar.stop();
-        bar.start(mb(total), mb(done), { label: label.length > 30 ? `…${label.slice(-29)}` : label });
+        started = Date.now();
+        bar.start(scale(total), scale(done), { label: label.length > 30 ? `…${label.slice(-29)}` : label, unit: unit ?? "MB", rate: "0" });
         current = label;
-      } else bar.update(mb(done));
+      } else bar.update(scale(done), { rate: (scale(done) / seconds).toFixed(unit ? 0 : 1) });
     },
     stop() {
       if (current !== undefined) bar.stop();

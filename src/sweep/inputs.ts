@@ -1,0 +1,99 @@
+/**
+ * What a sweep reads: every APK, bundle or manifest under a folder (told by content), the files named in a
+ * list (one path a line), or an index CSV (`file,category`). Paths in lists and indexes are relative to
+ * the list's folder. The order is sorted by id, so that runs and shards are stable.
+ */
+import { closeSync, openSync, readFileSync, readSync, readdirSync, statSync } from "node:fs";
+import { join, relative, resolve, dirname, sep } from "node:path";
+import { splitCsvLine } from "../baseline/corpus/csv.js";
+import { InputError } from "../errors.js";
+import { detectKind } from "../extract/index.js";
+import type { SweepInput } from "./row.js";
+
+function head(path: string): Uint8Array {
+  const fd = openSync(path, "r");
+  try {
+    const b = Buffer.alloc(64);
+    const n = readSync(fd, b, 0, 64, 0);
+    return b.subarray(0, n);
+  } finally {
+    closeSync(fd);
+  }
+}
+
+function walk(root: string, dir: string, out: SweepInput[]): void {
+  for (const entry of readdirSync(dir, { withFileTypes: true }).sort((a, b) => (a.name < b.name ? -1 : 1))) {
+    if (entry.name.startsWith(".")) continue;
+    const path = join(dir, entry.name);
+    if (entry.isDirectory()) walk(root, path, out);
+    else if (entry.isFile()) {
+      let kind;
+      try {
+        kind = detectKind(head(path));
+      } catch {
+        kind = "unknown"; // unreadable now: listed as a failure when read
+      }
+      // A folder holds other things too (notes, images); only what looks like an app is swept,
+      // and an unreadable file is kept so that the sweep reports it.
+      if (kind === "unknown" && !/\.(apk|aab|apks|xml)$/i.test(entry.name)) continue;
+      const st = statSync(path);
+      out.push({ id: relative(root, path).split(sep).join("/"), file: path, size: st.size, mtimeMs: Math.round(st.mtimeMs) });
+    }
+  }
+}
+
+function fileInput(base: string, listed: string, category?: string): SweepInput {
+  const file = resolve(base, listed);
+  let size = -1;
+  let mtimeMs = -1;
+  try {
+    const st = statSync(file);
+    size = st.size;
+    mtimeMs = Math.round(st.mtimeMs);
+  } catch {
+    /* missing: it becomes a failed row */
+  }
+  return { id: listed, file, size, mtimeMs, ...(category ? { category } : {}) };
+}
+
+export function listInputs(source: string): SweepInput[] {
+  let st;
+  try {
+    st = statSync(source);
+  } catch {
+    throw new InputError("no such file or folder", { file: source });
+  }
+  const out: SweepInput[] = [];
+  if (st.isDirectory()) walk(source, source, out);
+  else {
+    const base = dirname(source);
+    const lines = readFileSync(source, "utf8").split(/\r?\n/).map((l) => l.trim()).filter((l) => l && !l.startsWith("#"));
+    const isIndex = lines.length > 0 && (lines[0].toLowerCase().startsWith("file,") || lines.every((l) => l.includes(",")));
+    lines.forEach((line, i) => {
+      if (isIndex) {
+        const f = splitCsvLine(line);
+        if (i === 0 && f?.[0]?.trim().toLowerCase() === "file") return;
+        if (!f || !f[0]) throw new InputError(`line ${i + 1}: expected file,category`, { file: source });
+        out.push(fileInput(base, f[0].trim(), f[1]?.trim() || undefined));
+      } else out.push(fileInput(base, line));
+    });
+  }
+  out.sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
+  return out;
+}
+
+/** 32-bit FNV-1a of the id: a stable way to split inputs into shards on any machine. */
+export function shardOf(id: string, n: number): number {
+  let h = 0x811c9dc5;
+  for (let i = 0; i < id.length; i++) h = Math.imul(h ^ id.charCodeAt(i), 0x01000193);
+  return (h >>> 0) % n;
+}
+
+/** Parses `i/n` (1-based): this machine takes the inputs whose shard is i−1. Undefined when malformed. */
+export function parseShard(spec: string): { index: number; count: number } | undefined {
+  const m = /^(\d+)\/(\d+)$/.exec(spec);
+  if (!m) return undefined;
+  const index = Number(m[1]);
+  const count = Number(m[2]);
+  return count >= 1 && index >= 1 && index <= count ? { index, count } : undefined;
+}

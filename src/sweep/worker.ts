@@ -1,0 +1,27 @@
+/**
+ * A sweep worker thread: loads the baseline once, then reads and judges the inputs it is sent.
+ */
+import { parentPort, workerData } from "node:worker_threads";
+import { readBaselineFile } from "../baseline/baseline-file.js";
+import { Judge } from "../score/check-app.js";
+import type { Level } from "../score/types.js";
+import { scoreInput, type SweepInput } from "./row.js";
+
+export interface WorkerSetup {
+  baselinePath: string;
+  category?: string;
+  categoryIndex?: [string, string][];
+  levels?: [string, Level | "off"][];
+}
+
+const setup = workerData as WorkerSetup;
+const judge = new Judge(readBaselineFile(setup.baselinePath));
+const options = {
+  ...(setup.category ? { category: setup.category } : {}),
+  ...(setup.categoryIndex ? { categoryIndex: new Map(setup.categoryIndex) } : {}),
+  levels: new Map(setup.levels ?? []),
+};
+
+parentPort!.on("message", (msg: { seq: number; input: SweepInput }) => {
+  parentPort!.postMessage({ seq: msg.seq, row: scoreInput(judge, msg.input, options) });
+});

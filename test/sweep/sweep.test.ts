@@ -1,0 +1,129 @@
+import { spawn } from "node:child_process";
+import { copyFileSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+import { EXIT } from "../../src/cli/exit-codes.js";
+import { cli } from "../helpers/cli.js";
+import { APK_DIR, FIXTURES, ROOT } from "../helpers/paths.js";
+
+const DEMO = `${ROOT}baselines/harbourview-demo.json`;
+const base = mkdtempSync(join(tmpdir(), "overask-sweep-"));
+
+/** A folder of `copies` × the fixture APKs (distinct names), one bundle, a note and a broken file. */
+function inventory(name: string, copies = 1): string {
+  const dir = join(base, name);
+  mkdirSync(join(dir, "nested"), { recursive: true });
+  const apks = readdirSync(APK_DIR).filter((f) => f.endsWith(".apk"));
+  for (let c = 0; c < copies; c++) for (const f of apks) copyFileSync(join(APK_DIR, f), join(dir, c % 2 ? "nested" : "", `${c}-${f}`));
+  copyFileSync(`${FIXTURES}bundle/tidewatch.aab`, join(dir, "nested", "tidewatch.aab"));
+  writeFileSync(join(dir, "README.txt"), "not an app");
+  writeFileSync(join(dir, "broken.apk"), "PK\u0003\u0004 cut short");
+  return dir;
+}
+
+const ids = (path: string) => readFileSync(path, "utf8").trim().split("\n").map((l) => JSON.parse(l).id as string);
+
+describe("overask sweep", () => {
+  it("scores every app under a folder once, keeps bad files as rows, and exits with the input code", async () => {
+    const dir = inventory("basic");
+    const out = join(base, "basic.jsonl");
+    const { code, stdout } = await cli(["sweep", dir, "-o", out, "-b", DEMO, "-j", "1"]);
+    expect(code).toBe(EXIT.INPUT);
+    const rows = readFileSync(out, "utf8").trim().split("\n").map((l) => JSON.parse(l));
+    expect(rows).toHaveLength(9); // 7 APKs, 1 bundle, 1 broken file; the README is not an app
+    expect(rows.map((r) => r.id)).toEqual([...rows.map((r) => r.id)].sort());
+    expect(rows.find((r) => r.id === "broken.apk")).toMatchObject({ status: "failed", error: { kind: "ArchiveError" } });
+    expect(rows.find((r) => r.id === "nested/tidewatch.aab")).toMatchObject({ status: "scored", package: "org.example.tidewatch" });
+    expect(stdout).toMatch(/Swept 9 inputs: 8 scored, 1 could not be read\./);
+    expect(stdout.replace(/\s+/g, " ")).toMatch(/not evidence of intent or harm/);
+  });
+
+  it("gives the same file on every run, with one job or two", async () => {
+    const dir = inventory("repeat", 3);
+    const a = join(base, "a.jsonl");
+    const b = join(base, "b.jsonl");
+    await cli(["sweep", dir, "-o", a, "-b", DEMO, "-j", "1"]);
+    await cli(["sweep", dir, "-o", b, "-b", DEMO, "-j", "2"]);
+    expect(readFileSync(b, "utf8")).toBe(readFileSync(a, "utf8"));
+  });
+
+  it("reads a list of files and an index CSV with categories", async () => {
+    const list = join(base, "list.txt");
+    writeFileSync(list, `${APK_DIR}tidewatch.apk\n# a comment\n${APK_DIR}pocketlamp.apk\n`);
+    const out1 = join(base, "list.jsonl");
+    expect((await cli(["sweep", list, "-o", out1, "-b", DEMO, "-j", "1"])).code).toBe(EXIT.OK);
+    expect(ids(out1)).toHaveLength(2);
+    const index = join(base, "index.csv");
+    writeFileSync(index, `file,category\n${APK_DIR}tidewatch.apk,Tools\n${APK_DIR}chirpchat.apk,Communication\n`);
+    const out2 = join(base, "index.jsonl");
+    await cli(["sweep", index, "-o", out2, "-b", DEMO, "-j", "1"]);
+    const rows = readFileSync(out2, "utf8").trim().split("\n").map((l) => JSON.parse(l));
+    expect(rows.map((r) => r.category).sort()).toEqual(["Communication", "Tools"]);
+  });
+
+  it("splits inputs into stable, disjoint shards that together cover all", async () => {
+    const dir = inventory("shards", 4);
+    const all = join(base, "all.jsonl");
+    await cli(["sweep", dir, "-o", all, "-b", DEMO, "-j", "1"]);
+    const parts: string[][] = [];
+    for (const i of [1, 2, 3]) {
+      const out = join(base, `shard${i}.jsonl`);
+      await cli(["sweep", dir, "-o", out, "-b", DEMO, "-j", "1", "--shard", `${i}/3`]);
+      parts.push(ids(out));
+    }
+    expect(parts.flat().sort()).toEqual(ids(all));
+    expect(parts.every((p) => p.length > 0)).toBe(true);
+    expect((await cli(["sweep", dir, "-o", all, "--shard", "4/3"])).code).toBe(EXIT.USAGE);
+  });
+
+  it("resumes after an interruption that left a torn last line, keeping finished rows", async () => {
+    const dir = inventory("resume", 2);
+    const out = join(base, "resume.jsonl");
+    await cli(["sweep", dir, "-o", out, "-b", DEMO, "-j", "1"]);
+    const lines = readFileSync(out, "utf8").trim().split("\n");
+    // As if killed: the first 5 rows written (one marked, to see it is kept, not redone), then half a row.
+    const marked = { ...JSON.parse(lines[0]), package: "org.example.kept-from-before" };
+    writeFileSync(out, [JSON.stringify(marked), ...lines.slice(1, 5)].join("\n") + "\n" + lines[5].slice(0, 20));
+    const { stdout } = await cli(["sweep", dir, "-o", out, "-b", DEMO, "-j", "1", "--resume"]);
+    expect(stdout).toMatch(/5 kept from the earlier run/);
+    const after = readFileSync(out, "utf8").trim().split("\n").map((l) => JSON.parse(l));
+    expect(after.map((r) => r.id)).toEqual(lines.map((l) => JSON.parse(l).id));
+    expect(after[0].package).toBe("org.example.kept-from-before");
+  });
+
+  it("ends with every input exactly once when killed at any point and resumed (SIGKILL, several points)", async () => {
+    const dir = inventory("killed", 30); // 30 × 7 APKs + a bundle + a broken file
+    const expected = (await (async () => {
+      const out = join(base, "killed-full.jsonl");
+      await cli(["sweep", dir, "-o", out, "-b", DEMO, "-j", "1"]);
+      return ids(out);
+    })());
+    for (const delay of [150, 400, 700, 1000]) {
+      const out = join(base, `killed-${delay}.jsonl`);
+      await new Promise<void>((resolve) => {
+        const child = spawn(process.execPath, [`${ROOT}bin/overask.js`, "sweep", dir, "-o", out, "-b", DEMO, "-j", "2"], { stdio: "ignore" });
+        const timer = setTimeout(() => child.kill("SIGKILL"), delay);
+        child.on("exit", () => {
+          clearTimeout(timer);
+          resolve();
+        });
+      });
+      const { code } = await cli(["sweep", dir, "-o", out, "-b", DEMO, "-j", "2", "--resume"]);
+      expect(code).toBe(EXIT.INPUT); // the broken file
+      expect(ids(out)).toEqual(expected);
+    }
+  }, 120_000);
+
+  it("writes CSV with a header, and resumes from it", async () => {
+    const dir = inventory("csv");
+    const out = join(base, "out.csv");
+    await cli(["sweep", dir, "-o", out, "-b", DEMO, "-j", "1", "--format", "csv"]);
+    const text = readFileSync(out, "utf8");
+    expect(text.split("\n")[0]).toBe("id,size,mtimeMs,status,package,versionName,versionCode,category,fallback,risk,band,errors,warnings,notes,checks,errorKind,errorMessage");
+    expect(text.trim().split("\n")).toHaveLength(10);
+    const { stdout } = await cli(["sweep", dir, "-o", out, "-b", DEMO, "-j", "1", "--format", "csv", "--resume"]);
+    expect(stdout).toMatch(/9 kept from the earlier run/);
+    expect(readFileSync(out, "utf8")).toBe(text);
+  });
+});
