@@ -4,7 +4,7 @@
 //
 //   node scripts/bench.mjs [--only extract] [--sizes 5,50,200] [--reps 15]
 import { execFileSync, spawnSync } from "node:child_process";
-import { closeSync, existsSync, fstatSync, mkdirSync, openSync, readFileSync, readSync, rmSync, writeFileSync, openSync as open2, writeSync } from "node:fs";
+import { closeSync, copyFileSync, existsSync, fstatSync, mkdirSync, openSync, readFileSync, readSync, readdirSync, rmSync, writeFileSync, openSync as open2, writeSync } from "node:fs";
 import { randomBytes } from "node:crypto";
 import { join } from "node:path";
 import { inflateRawSync, deflateRawSync, crc32 } from "node:zlib";
@@ -22,7 +22,7 @@ const REPS = Number(opt("reps", "41"));
 const OUT = join(ROOT, "bench-out");
 mkdirSync(OUT, { recursive: true });
 
-const ONLY = opt("only", "extract,learn,check").split(",");
+const ONLY = opt("only", "extract,learn,check,sweep").split(",");
 const median = (xs) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 const ms = (t0) => Number(process.hrtime.bigint() - t0) / 1e6;
 const fmt = (x) => (x < 10 ? x.toFixed(3) : x.toFixed(1));
@@ -30,39 +30,6 @@ const fmt = (x) => (x < 10 ? x.toFixed(3) : x.toFixed(1));
 function header(title) {
   console.log(`\n## ${title}`);
 }
-
-// ---------------------------------------------------------------------------------------------
-if (ONLY.includes("extract")) {
-header("decode: the platform's framework manifest (222 KB, UTF-16), in process");
-{
-  const bytes = readFileSync(join(ROOT, "fixtures/platform/framework-res-AndroidManifest.xml"));
-  for (let i = 0; i < 50; i++) lib.readManifestBytes(bytes); // warm-up
-  const tree = [];
-  const model = [];
-  for (let i = 0; i < 200; i++) {
-    let t = process.hrtime.bigint();
-    lib.decodeBinaryXml(bytes);
-    tree.push(ms(t));
-    t = process.hrtime.bigint();
-    lib.readManifestBytes(bytes);
-    model.push(ms(t));
-  }
-  // Floor: touching every byte once (a sum over the buffer), the least any decoder must do.
-  const floor = [];
-  for (let i = 0; i < 200; i++) {
-    const t = process.hrtime.bigint();
-    let s = 0;
-    for (let j = 0; j < bytes.length; j++) s = (s + bytes[j]) | 0;
-    if (s === 42) console.log("");
-    floor.push(ms(t));
-  }
-  console.log(`decodeBinaryXml (tree only):     median ${fmt(median(tree))} ms  (goal < 5 ms)`);
-  console.log(`readManifestBytes (full model):  median ${fmt(median(model))} ms`);
-  console.log(`floor (one pass over the bytes): median ${fmt(median(floor))} ms`);
-}
-
-// ---------------------------------------------------------------------------------------------
-header("facts on synthetic APKs: a small manifest plus large incompressible entries");
 
 /** Writes a zip: the manifest (deflated) first, then `mb` MB of random bytes in 1 MB stored entries. */
 function writeSyntheticApk(path, mb, manifest) {
@@ -117,6 +84,7 @@ function writeSyntheticApk(path, mb, manifest) {
 }
 
 /** The floor: end record, central directory, the manifest entry's local header and data, inflate. */
+// (Also the floor of the sweep benchmark.)
 function floorRead(path) {
   const fd = openSync(path, "r");
   const size = fstatSync(fd).size;
@@ -151,6 +119,39 @@ function floorRead(path) {
   closeSync(fd);
   return data;
 }
+
+// ---------------------------------------------------------------------------------------------
+if (ONLY.includes("extract")) {
+header("decode: the platform's framework manifest (222 KB, UTF-16), in process");
+{
+  const bytes = readFileSync(join(ROOT, "fixtures/platform/framework-res-AndroidManifest.xml"));
+  for (let i = 0; i < 50; i++) lib.readManifestBytes(bytes); // warm-up
+  const tree = [];
+  const model = [];
+  for (let i = 0; i < 200; i++) {
+    let t = process.hrtime.bigint();
+    lib.decodeBinaryXml(bytes);
+    tree.push(ms(t));
+    t = process.hrtime.bigint();
+    lib.readManifestBytes(bytes);
+    model.push(ms(t));
+  }
+  // Floor: touching every byte once (a sum over the buffer), the least any decoder must do.
+  const floor = [];
+  for (let i = 0; i < 200; i++) {
+    const t = process.hrtime.bigint();
+    let s = 0;
+    for (let j = 0; j < bytes.length; j++) s = (s + bytes[j]) | 0;
+    if (s === 42) console.log("");
+    floor.push(ms(t));
+  }
+  console.log(`decodeBinaryXml (tree only):     median ${fmt(median(tree))} ms  (goal < 5 ms)`);
+  console.log(`readManifestBytes (full model):  median ${fmt(median(model))} ms`);
+  console.log(`floor (one pass over the bytes): median ${fmt(median(floor))} ms`);
+}
+
+// ---------------------------------------------------------------------------------------------
+header("facts on synthetic APKs: a small manifest plus large incompressible entries");
 
 function rss() {
   return process.memoryUsage().rss / 1024 / 1024;
@@ -286,6 +287,40 @@ if (ONLY.includes("check")) {
     const rss = Number(r.stderr.trim().split("\n").pop()) / 1024;
     console.log(`floor (read, parse and write one line per record): ${floorS.toFixed(1)} s, ${Math.round(ROWS / floorS).toLocaleString("en")} records/s`);
     console.log(`check --records: ${seconds.toFixed(1)} s, ${Math.round(ROWS / seconds).toLocaleString("en")} records/s (goal ≥ 20,000), ${(seconds / floorS).toFixed(2)}x the floor, peak RSS ${rss.toFixed(0)} MB`);
+  }
+}
+
+// ---------------------------------------------------------------------------------------------
+if (ONLY.includes("sweep")) {
+  const SMALL = Number(opt("sweep-small", "10000"));
+  const LARGE = Number(opt("sweep-large", "200"));
+  const LARGE_MB = Number(opt("sweep-large-mb", "50"));
+  const manifest = lib.openArchiveFile(join(ROOT, "fixtures/apk/tidewatch.apk")).read("AndroidManifest.xml", "MAX_MANIFEST_BYTES");
+  const sets = [
+    { name: `${SMALL.toLocaleString("en")} small APKs`, dir: join(OUT, `sweep-small-${SMALL}`), count: SMALL, make: (p) => copyFileSync(join(ROOT, "fixtures/apk/tidewatch.apk"), p) },
+    { name: `${LARGE} APKs of ${LARGE_MB} MB`, dir: join(OUT, `sweep-large-${LARGE}`), count: LARGE, make: (p) => writeSyntheticApk(p, LARGE_MB, Buffer.from(manifest)) },
+  ];
+  for (const set of sets) {
+    header(`sweep: ${set.name}, 2 jobs, against the floor (central directory + manifest entry of each, one thread)`);
+    if (!existsSync(set.dir)) {
+      mkdirSync(set.dir, { recursive: true });
+      for (let i = 0; i < set.count; i++) set.make(join(set.dir, `app-${String(i).padStart(5, "0")}.apk`));
+    }
+    const files = readdirSync(set.dir).map((f) => join(set.dir, f));
+    // Warm the page cache the same way for both.
+    for (const f of files) floorRead(f);
+    let t = process.hrtime.bigint();
+    for (const f of files) floorRead(f);
+    const floorS = ms(t) / 1000;
+    const out = join(OUT, "sweep-results.jsonl");
+    t = process.hrtime.bigint();
+    const r = spawnSync("/usr/bin/time", ["-f", "%M", process.execPath, join(ROOT, "bin/overask.js"), "sweep", set.dir, "-o", out, "-j", "2", "-c", "TOOLS"], { stdio: ["ignore", "ignore", "pipe"], encoding: "utf8" });
+    const sweepS = ms(t) / 1000;
+    const rss = Number(r.stderr.trim().split("\n").pop()) / 1024;
+    const fr = files.length / floorS;
+    const sr = files.length / sweepS;
+    console.log(`floor: ${floorS.toFixed(2)} s, ${Math.round(fr).toLocaleString("en")} apps/s`);
+    console.log(`sweep -j 2: ${sweepS.toFixed(2)} s, ${Math.round(sr).toLocaleString("en")} apps/s = ${(sr / fr).toFixed(2)}x the floor's throughput (goal ≥ 0.5x), peak RSS ${rss.toFixed(0)} MB (goal < 300 MB)`);
   }
 }
 

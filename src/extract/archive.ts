@@ -48,44 +48,101 @@ export function looksLikeZip(bytes: Uint8Array): boolean {
   return ZIP_LOCAL_MAGIC.every((b, i) => bytes[i] === b) || (bytes[0] === 0x50 && bytes[1] === 0x4b && bytes[2] === 0x05 && bytes[3] === 0x06);
 }
 
-export function openArchiveBytes(bytes: Uint8Array): ArchiveReader {
+/** Where archive bytes come from: a file (read on demand) or memory. */
+interface Source {
+  size: number;
+  /** Copies [position, position + length) into `buf` at `offset`. */
+  readAt(buf: Buffer, offset: number, length: number, position: number): void;
+  /** The bytes [position, position + length) (a view when in memory). */
+  slice(position: number, length: number): Buffer;
+  close(): void;
+}
+
+function bufferSource(buf: Buffer): Source {
+  return {
+    size: buf.length,
+    readAt(into, offset, length, position) {
+      if (position + length > buf.length) throw new ArchiveError(`data ends while reading ${length} bytes at offset ${position}`);
+      buf.copy(into, offset, position, position + length);
+    },
+    slice(position, length) {
+      if (position + length > buf.length) throw new ArchiveError(`data ends while reading ${length} bytes at offset ${position}`);
+      return buf.subarray(position, position + length);
+    },
+    close() {},
+  };
+}
+
+function fileSource(fd: number, size: number, close: () => void): Source {
+  return {
+    size,
+    readAt: (into, offset, length, position) => readAt(fd, into, offset, length, position),
+    slice(position, length) {
+      const b = Buffer.alloc(length);
+      readAt(fd, b, 0, length, position);
+      return b;
+    },
+    close,
+  };
+}
+
+type EntryFilter = readonly string[] | ((name: string) => boolean);
+
+export function openArchiveBytes(bytes: Uint8Array, only?: EntryFilter): ArchiveReader {
   const buf = Buffer.isBuffer(bytes) ? bytes : Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-  return new AdmArchive(buf, () => {});
+  return openSource(bufferSource(buf), only, buf);
 }
 
 /**
  * Opens an archive on disk, reading only what is needed from large files. With `only`, the reader
  * lists and reads just the entries of those names (all records of each name, so duplicates still show).
  */
-export function openArchiveFile(path: string, only?: readonly string[] | ((name: string) => boolean)): ArchiveReader {
+export function openArchiveFile(path: string, only?: EntryFilter): ArchiveReader {
   const fd = openSync(path, "r");
-  const close = () => closeSync(fd);
+  let size: number;
   try {
-    const size = fstatSync(fd).size;
-    if (size < READ_WHOLE_BELOW) {
-      const buf = Buffer.alloc(size);
+    size = fstatSync(fd).size;
+  } catch (e) {
+    closeSync(fd);
+    throw e;
+  }
+  return openArchiveFd(fd, size, only);
+}
+
+/** As openArchiveFile, for a file already open; `fd` is closed by the reader, or here on failure. */
+export function openArchiveFd(fd: number, size: number, only?: EntryFilter): ArchiveReader {
+  if (size < READ_WHOLE_BELOW) {
+    // Small files: one read, then everything from memory.
+    const buf = Buffer.alloc(size);
+    try {
       readAt(fd, buf, 0, size, 0);
-      close();
-      return new AdmArchive(buf, () => {});
+    } finally {
+      closeSync(fd);
     }
+    return openSource(bufferSource(buf), only, buf);
+  }
+  let open = true;
+  return openSource(fileSource(fd, size, () => { if (open) { open = false; closeSync(fd); } }), only);
+}
+
+function openSource(src: Source, only: EntryFilter | undefined, whole?: Buffer): ArchiveReader {
+  try {
+    const size = src.size;
     const tailStart = Math.max(0, size - EOCD_SEARCH);
-    const tail = Buffer.alloc(size - tailStart);
-    readAt(fd, tail, 0, tail.length, tailStart);
+    const tail = src.slice(tailStart, size - tailStart);
     const eocd = findEocd(tail);
     if (eocd < 0) throw new ArchiveError("no end of central directory record (not a zip archive, or truncated)");
     const cdSize = tail.readUInt32LE(eocd + 12); // EOCD: size of the central directory
     const cdOffset = tail.readUInt32LE(eocd + 16); // EOCD: offset of start of central directory
     if (cdOffset === 0xffffffff || cdSize === 0xffffffff) {
       // Zip64: rare for APKs; let adm-zip find its way through the whole file.
-      const buf = Buffer.alloc(size);
-      readAt(fd, buf, 0, size, 0);
-      close();
+      const buf = whole ?? src.slice(0, size);
+      src.close();
       return new AdmArchive(buf, () => {});
     }
     const eocdAt = tailStart + eocd;
     if (cdOffset + cdSize > eocdAt) throw new ArchiveError(`central directory (${cdSize} bytes at ${cdOffset}) overlaps its end record at ${eocdAt}`);
-    let records: Buffer = Buffer.alloc(cdSize);
-    readAt(fd, records, 0, cdSize, cdOffset);
+    let records: Buffer = src.slice(cdOffset, cdSize);
     let count = tail.readUInt16LE(eocd + 10); // EOCD: total number of entries
     if (only) {
       const names = typeof only === "function" ? undefined : new Set(only);
@@ -99,9 +156,9 @@ export function openArchiveFile(path: string, only?: readonly string[] | ((name:
     end.writeUInt32LE(records.length, 12);
     end.writeUInt32LE(0, 16);
     end.writeUInt16LE(0, 20);
-    return new AdmArchive(Buffer.concat([records, end]), close, { fd, size });
+    return new AdmArchive(Buffer.concat([records, end]), () => src.close(), src);
   } catch (e) {
-    try { close(); } catch { /* already closed */ }
+    try { src.close(); } catch { /* already closed */ }
     throw e;
   }
 }
@@ -149,8 +206,8 @@ class AdmArchive implements ArchiveReader {
   constructor(
     private readonly buf: Buffer,
     private readonly onClose: () => void,
-    /** When set, `buf` holds only the central directory and entry data is read from this file. */
-    private readonly file?: { fd: number; size: number },
+    /** When set, `buf` holds only the central directory and entry data is read from this source. */
+    private readonly file?: Source,
   ) {
     try {
       this.zip = new AdmZip(buf, { readEntries: true } as never);
@@ -210,17 +267,14 @@ class AdmArchive implements ArchiveReader {
   }
 }
 
-/** Reads an entry's compressed bytes from the file: local header (30 bytes, then name and extra), then data. */
-function readLocalEntry(file: { fd: number; size: number }, at: number, i: ArchiveEntryInfo, name: string): Buffer {
-  if (at + LOCAL_HEADER_SIZE > file.size) throw new ArchiveError(`${name}: local header offset ${at} is past the end of the file`);
-  const local = Buffer.alloc(LOCAL_HEADER_SIZE);
-  readAt(file.fd, local, 0, LOCAL_HEADER_SIZE, at);
+/** Reads an entry's compressed bytes: local header (30 bytes, then name and extra), then data. */
+function readLocalEntry(src: Source, at: number, i: ArchiveEntryInfo, name: string): Buffer {
+  if (at + LOCAL_HEADER_SIZE > src.size) throw new ArchiveError(`${name}: local header offset ${at} is past the end of the file`);
+  const local = src.slice(at, LOCAL_HEADER_SIZE);
   if (local.readUInt32LE(0) !== 0x04034b50) throw new ArchiveError(`${name}: no local header signature at offset ${at}`);
   const dataAt = at + LOCAL_HEADER_SIZE + local.readUInt16LE(26) + local.readUInt16LE(28); // name and extra lengths
-  if (dataAt + i.compressedSize > file.size) throw new ArchiveError(`${name}: ${i.compressedSize} bytes of data at ${dataAt} run past the end of the file`);
-  const data = Buffer.alloc(i.compressedSize);
-  readAt(file.fd, data, 0, i.compressedSize, dataAt);
-  return data;
+  if (dataAt + i.compressedSize > src.size) throw new ArchiveError(`${name}: ${i.compressedSize} bytes of data at ${dataAt} run past the end of the file`);
+  return src.slice(dataAt, i.compressedSize);
 }
 
 function info(e: AdmEntry): ArchiveEntryInfo {

@@ -3,13 +3,13 @@
  * a bare binary AndroidManifest.xml, or a plain-text source manifest. The kind is told by content,
  * never by the file extension.
  */
-import { closeSync, openSync, readFileSync, readSync, statSync } from "node:fs";
+import { closeSync, fstatSync, openSync, readFileSync, readSync } from "node:fs";
 import { InputError, LimitError, withFile } from "../errors.js";
 import { LIMITS } from "../limits.js";
 import { decodeBinaryXml, looksLikeBinaryXml } from "./binary/binary-xml.js";
 import { ResourceTable } from "./binary/resource-table.js";
 import { buildManifest, type ReferenceResolver } from "./build-manifest.js";
-import { looksLikeZip, openArchiveBytes, openArchiveFile, type ArchiveEntryInfo, type ArchiveReader } from "./archive.js";
+import { looksLikeZip, openArchiveBytes, openArchiveFd, type ArchiveEntryInfo, type ArchiveReader } from "./archive.js";
 import { requestedPermissionNames, type Manifest } from "./model.js";
 import { parsePlainXml } from "./plain-xml.js";
 import { decodeProtoXml, looksLikeProtoXml, protoResourceResolver } from "./proto/proto-xml.js";
@@ -36,7 +36,7 @@ const RESOURCE_TABLE_ENTRY = "resources.arsc";
 export function readManifestBytes(bytes: Uint8Array, label = "<input>"): Manifest {
   try {
     const kind = detectKind(bytes.subarray(0, 64));
-    if (kind === "zip") return fromArchive(openArchiveBytes(bytes));
+    if (kind === "zip") return fromArchive(openArchiveBytes(bytes, wantedEntry));
     return fromBareBytes(bytes, kind);
   } catch (e) {
     throw withFile(e, label);
@@ -44,28 +44,36 @@ export function readManifestBytes(bytes: Uint8Array, label = "<input>"): Manifes
 }
 
 /** Reads a manifest from a file on disk, touching only the parts of a large archive it needs. */
-export function readManifestFile(path: string): Manifest {
-  try {
-    const st = statSync(path);
-    if (st.isDirectory()) throw new InputError("is a directory, not an APK or manifest");
-    const head = Buffer.alloc(64);
-    const fd = readHead(path, head);
-    const kind = detectKind(head.subarray(0, fd));
-    if (kind === "zip") return fromArchive(openArchiveFile(path, wantedEntry));
-    if (kind === "unknown") return fromBareBytes(head.subarray(0, fd), kind);
-    if (st.size > LIMITS.MAX_MANIFEST_BYTES) throw new LimitError("MAX_MANIFEST_BYTES", st.size, LIMITS.MAX_MANIFEST_BYTES, "manifest file has a size in bytes of");
-    return fromBareBytes(readFileSync(path), kind);
-  } catch (e) {
-    throw withFile(fsError(e), path);
-  }
+export interface ReadOptions {
+  /**
+   * Resolve resource references (the label) through resources.arsc (default true). A sweep that does not
+   * show labels turns it off: the resource table is often the largest thing read.
+   */
+  resolveResources?: boolean;
 }
 
-function readHead(path: string, into: Buffer): number {
-  const fd = openSync(path, "r");
+export function readManifestFile(path: string, options: ReadOptions = {}): Manifest {
+  let fd: number | undefined;
   try {
-    return readSync(fd, into, 0, into.length, 0);
+    // One open for everything: the kind is told from the first bytes, then the same descriptor is read.
+    fd = openSync(path, "r");
+    const st = fstatSync(fd);
+    if (st.isDirectory()) throw new InputError("is a directory, not an APK or manifest");
+    const head = Buffer.alloc(64);
+    const n = readSync(fd, head, 0, head.length, 0);
+    const kind = detectKind(head.subarray(0, n));
+    if (kind === "zip") {
+      const owned = fd;
+      fd = undefined; // from here the archive reader closes it, also when it fails
+      return fromArchive(openArchiveFd(owned, st.size, wantedEntry), options);
+    }
+    if (kind === "unknown") return fromBareBytes(head.subarray(0, n), kind);
+    if (st.size > LIMITS.MAX_MANIFEST_BYTES) throw new LimitError("MAX_MANIFEST_BYTES", st.size, LIMITS.MAX_MANIFEST_BYTES, "manifest file has a size in bytes of");
+    return fromBareBytes(readFileSync(fd), kind);
+  } catch (e) {
+    throw withFile(fsError(e), path);
   } finally {
-    closeSync(fd);
+    if (fd !== undefined) closeSync(fd);
   }
 }
 
@@ -96,7 +104,7 @@ function wantedEntry(name: string): boolean {
   return name === MANIFEST_ENTRY || name === RESOURCE_TABLE_ENTRY || name === "base/resources.pb" || BUNDLE_MANIFEST.test(name) || NESTED_APK.test(name);
 }
 
-function fromArchive(archive: ArchiveReader): Manifest {
+function fromArchive(archive: ArchiveReader, options: ReadOptions = {}): Manifest {
   try {
     const entries = archive.entries();
     const entry = entries.find((e) => e.name === MANIFEST_ENTRY);
@@ -111,7 +119,7 @@ function fromArchive(archive: ArchiveReader): Manifest {
     let resolve: ReferenceResolver | undefined;
     let tableProblem: string | undefined;
     const hasTable = entries.some((e) => e.name === RESOURCE_TABLE_ENTRY);
-    if (hasTable) {
+    if (hasTable && options.resolveResources !== false) {
       let table: ResourceTable | undefined;
       let failed = false;
       resolve = (id) => {

@@ -52,6 +52,7 @@ function esc(s: string): string {
 
 export function sweepToHtml(input: HtmlReportInput): string {
   const { summary } = input;
+  const rows = summary.rows();
   const data = {
     tool: `overask ${TOOL_VERSION}`,
     baseline: input.baselineName,
@@ -59,7 +60,7 @@ export function sweepToHtml(input: HtmlReportInput): string {
     cutPoints: input.cutPoints ?? {},
     baseRate: input.baseRate ?? null,
     checks: CHECKS.map((c) => ({ id: c.meta.id, title: c.meta.title })),
-    rows: summary.rows.map((r) => ({
+    rows: rows.map((r) => ({
       id: r.id,
       package: r.package ?? null,
       category: r.category ?? null,
@@ -72,7 +73,7 @@ export function sweepToHtml(input: HtmlReportInput): string {
       whatIf: r.whatIf ?? [],
       error: r.error?.message ?? null,
     })),
-    heatmap: heatmapData(summary.rows, input.baseline),
+    heatmap: heatmapData(rows, input.baseline),
     totals: { inputs: summary.inputs, scored: summary.scored, failed: summary.failed, byBand: summary.byBand },
   };
   const title = input.title ?? "overask sweep report";

@@ -27,15 +27,18 @@ function walk(root: string, dir: string, out: SweepInput[]): void {
     const path = join(dir, entry.name);
     if (entry.isDirectory()) walk(root, path, out);
     else if (entry.isFile()) {
-      let kind;
-      try {
-        kind = detectKind(head(path));
-      } catch {
-        kind = "unknown"; // unreadable now: listed as a failure when read
+      // A folder holds other things too (notes, images). Files named like apps are taken as they are
+      // (reading tells what they really are, and reports them if they are not); others only when their
+      // first bytes look like an app or a manifest.
+      if (!/\.(apk|aab|apks|xml)$/i.test(entry.name)) {
+        let kind;
+        try {
+          kind = detectKind(head(path));
+        } catch {
+          kind = "unknown";
+        }
+        if (kind === "unknown") continue;
       }
-      // A folder holds other things too (notes, images); only what looks like an app is swept,
-      // and an unreadable file is kept so that the sweep reports it.
-      if (kind === "unknown" && !/\.(apk|aab|apks|xml)$/i.test(entry.name)) continue;
       const st = statSync(path);
       out.push({ id: relative(root, path).split(sep).join("/"), file: path, size: st.size, mtimeMs: Math.round(st.mtimeMs) });
     }

@@ -43,7 +43,7 @@ export interface SweepRow {
 export function scoreInput(judge: Judge, input: SweepInput, options: JudgeOptions): SweepRow {
   const base = { id: input.id, size: input.size, mtimeMs: input.mtimeMs };
   try {
-    const m = readManifestFile(input.file);
+    const m = readManifestFile(input.file, { resolveResources: false });
     const r = judge.judge(m, input.category ? { ...options, category: input.category } : options);
     const counts: Record<Level, number> = { error: 0, warning: 0, note: 0 };
     for (const f of r.findings) counts[f.level]++;
@@ -69,6 +69,30 @@ export function scoreInput(judge: Judge, input: SweepInput, options: JudgeOption
     if (e instanceof InputError) return { ...base, status: "failed", error: { kind: e.name, message: e.message } };
     return { ...base, status: "failed", error: { kind: "InternalError", message: e instanceof Error ? e.message : String(e) } };
   }
+}
+
+/** A scored input as the output gets it: its line, and the few fields the summary needs. */
+export interface ScoredLine {
+  id: string;
+  line: string;
+  status: SweepRow["status"];
+  package?: string;
+  risk?: number;
+  band?: string;
+}
+
+/** Scores an input and serializes the row where it was scored (a worker), so that only a string travels. */
+export function scoreToLine(judge: Judge, input: SweepInput, options: JudgeOptions, format: "jsonl" | "csv"): ScoredLine {
+  const row = scoreInput(judge, input, options);
+  const line = format === "jsonl" ? JSON.stringify(row) : rowToCsv(row).slice(0, -1);
+  return {
+    id: row.id,
+    line,
+    status: row.status,
+    ...(row.package !== undefined ? { package: row.package } : {}),
+    ...(row.risk !== undefined ? { risk: row.risk } : {}),
+    ...(row.band !== undefined ? { band: row.band } : {}),
+  };
 }
 
 const CSV_COLUMNS = ["id", "size", "mtimeMs", "status", "package", "versionName", "versionCode", "category", "fallback", "risk", "band", "errors", "warnings", "notes", "checks", "errorKind", "errorMessage"] as const;

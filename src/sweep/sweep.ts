@@ -1,8 +1,9 @@
 /**
- * `sweep`: screens an inventory. Inputs are spread over worker threads; each result is appended to the
- * output as soon as it is known (one line, one write), so an interrupted run loses nothing; `--resume`
- * skips inputs already in the output with the same size and modification time. At the end the output is
- * rewritten sorted by id (atomically), so two runs on the same inputs give the same file.
+ * `sweep`: screens an inventory. Inputs are spread over worker threads; results are appended to the
+ * output as they are known (whole lines), so an interrupted run loses nothing, and nothing is held in
+ * memory. Every row carries a stable id (the input's path as listed): two runs on the same inputs give
+ * the same rows, in the order they finished. `--resume` keeps the rows of unchanged inputs (same size and
+ * modification time) and sweeps the rest.
  */
 import { closeSync, existsSync, openSync, readFileSync, writeSync } from "node:fs";
 import { join } from "node:path";
@@ -13,7 +14,7 @@ import { InputError, OutputError } from "../errors.js";
 import { Judge, type JudgeOptions } from "../score/check-app.js";
 import { packageRoot } from "../util/package-root.js";
 import { listInputs, shardOf } from "./inputs.js";
-import { csvHeader, csvRowKey, rowToCsv, scoreInput, type SweepInput, type SweepRow } from "./row.js";
+import { csvHeader, csvRowKey, scoreToLine, type ScoredLine, type SweepInput, type SweepRow } from "./row.js";
 import type { WorkerSetup } from "./worker.js";
 
 export interface SweepOptions {
@@ -35,33 +36,8 @@ export interface SweepSummary {
   failed: number;
   byBand: Record<string, number>;
   top: { id: string; package?: string; risk: number; band?: string }[];
-  rows: SweepRow[];
-}
-
-/** Reads what an earlier (perhaps interrupted) run wrote: complete rows by id; torn or foreign lines are dropped. */
-export function readExisting(path: string, format: "jsonl" | "csv"): Map<string, { size: number; mtimeMs: number; line: string; row?: SweepRow }> {
-  const out = new Map<string, { size: number; mtimeMs: number; line: string; row?: SweepRow }>();
-  if (!existsSync(path)) return out;
-  const text = readFileSync(path, "utf8");
-  const lines = text.split("\n");
-  // A last line without its newline was cut short by the interruption.
-  if (!text.endsWith("\n")) lines.pop();
-  for (const line of lines) {
-    if (!line) continue;
-    if (format === "jsonl") {
-      try {
-        const row = JSON.parse(line) as SweepRow;
-        if (typeof row.id === "string") out.set(row.id, { size: row.size, mtimeMs: row.mtimeMs, line, row });
-      } catch {
-        /* torn line: the input is swept again */
-      }
-    } else {
-      const fields = splitCsvLine(line);
-      const key = fields ? csvRowKey(fields) : undefined;
-      if (key && key.id !== "id") out.set(key.id, { size: key.size, mtimeMs: key.mtimeMs, line });
-    }
-  }
-  return out;
+  /** Every row of the final output, parsed on demand (CSV rows carry the summary columns only). */
+  rows(): SweepRow[];
 }
 
 function workerFile(): string {
@@ -70,19 +46,20 @@ function workerFile(): string {
   return file;
 }
 
-/** Runs `each` over the inputs on `jobs` worker threads (or in this thread for one job), calling `done` per row. */
-async function runPool(inputs: SweepInput[], options: SweepOptions, done: (row: SweepRow) => void): Promise<void> {
+/** Runs the inputs on `jobs` worker threads (or in this thread for one job), calling `done` per batch of rows. */
+async function runPool(inputs: SweepInput[], options: SweepOptions, done: (rows: ScoredLine[]) => void): Promise<void> {
   if (options.jobs <= 1 || inputs.length <= 1) {
     const judge = new Judge(readBaselineFile(options.baselinePath));
-    for (const input of inputs) {
-      done(scoreInput(judge, input, options.judge));
-      // Let the event loop breathe (progress, signals) now and then.
-      if (Math.random() < 0.01) await new Promise((r) => setImmediate(r));
+    for (let i = 0; i < inputs.length; i += 32) {
+      done(inputs.slice(i, i + 32).map((input) => scoreToLine(judge, input, options.judge, options.format)));
+      // Let the event loop breathe (progress, signals) between batches.
+      await new Promise((r) => setImmediate(r));
     }
     return;
   }
   const setup: WorkerSetup = {
     baselinePath: options.baselinePath,
+    format: options.format,
     ...(options.judge.category ? { category: options.judge.category } : {}),
     ...(options.judge.categoryIndex ? { categoryIndex: [...options.judge.categoryIndex] } : {}),
     levels: [...(options.judge.levels ?? new Map())],
@@ -103,17 +80,18 @@ async function runPool(inputs: SweepInput[], options: SweepOptions, done: (row: 
         if (running === 0) finish();
         return;
       }
-      const seq = next++;
-      w.postMessage({ seq, input: inputs[seq] });
+      // Batches shrink towards the end so that the workers finish together.
+      const size = Math.max(1, Math.min(32, Math.ceil((inputs.length - next) / (4 * workers.length))));
+      w.postMessage(inputs.slice(next, next + size));
+      next += size;
     };
     const n = Math.min(options.jobs, inputs.length);
-    for (let i = 0; i < n; i++) {
-      const w = new Worker(file, { workerData: setup });
-      workers.push(w);
+    for (let i = 0; i < n; i++) workers.push(new Worker(file, { workerData: setup }));
+    for (const w of workers) {
       running++;
-      w.on("message", (msg: { seq: number; row: SweepRow }) => {
+      w.on("message", (rows: ScoredLine[]) => {
         try {
-          done(msg.row);
+          done(rows);
         } catch (e) {
           finish(e as Error);
           return;
@@ -121,71 +99,128 @@ async function runPool(inputs: SweepInput[], options: SweepOptions, done: (row: 
         feed(w);
       });
       w.on("error", (e) => finish(e));
-      feed(w);
     }
+    for (const w of workers) feed(w);
   });
+}
+
+/** Running totals for the summary, so that no result has to stay in memory. */
+class Tally {
+  scored = 0;
+  failed = 0;
+  readonly byBand: Record<string, number> = {};
+  readonly top: { id: string; package?: string; risk: number; band?: string }[] = [];
+  add(r: Omit<ScoredLine, "line">): void {
+    if (r.status === "scored") this.scored++;
+    else this.failed++;
+    if (r.band) this.byBand[r.band] = (this.byBand[r.band] ?? 0) + 1;
+    if (r.risk === undefined) return;
+    const last = this.top[this.top.length - 1];
+    if (this.top.length < 10 || r.risk > last.risk || (r.risk === last.risk && r.id < last.id)) {
+      this.top.push({ id: r.id, ...(r.package ? { package: r.package } : {}), risk: r.risk, ...(r.band ? { band: r.band } : {}) });
+      this.top.sort((x, y) => y.risk - x.risk || x.id.localeCompare(y.id));
+      if (this.top.length > 10) this.top.pop();
+    }
+  }
+}
+
+/**
+ * Resuming: keeps from the earlier output the last complete row of every input that is unchanged (same
+ * size and modification time), drops torn, stale and duplicate lines, and writes the result back
+ * atomically. Returns the ids kept.
+ */
+function compact(options: SweepOptions, inputs: SweepInput[], tally: Tally): Set<string> {
+  const kept = new Set<string>();
+  if (!existsSync(options.output)) return kept;
+  const current = new Map(inputs.map((i) => [i.id, i]));
+  const text = readFileSync(options.output, "utf8");
+  const lines = text.split("\n");
+  if (!text.endsWith("\n")) lines.pop(); // cut short by the interruption
+  const latest = new Map<string, number>();
+  lines.forEach((line, i) => {
+    if (!line) return;
+    const r = briefOf(line, options.format);
+    const input = r && current.get(r.id);
+    if (r && input && r.size === input.size && r.mtimeMs === input.mtimeMs) latest.set(r.id, i);
+  });
+  let out = options.format === "csv" ? csvHeader() : "";
+  for (const [id, i] of latest) {
+    out += `${lines[i]}\n`;
+    kept.add(id);
+    tally.add(briefOf(lines[i], options.format)!);
+  }
+  writeFileAtomic(options.output, out);
+  return kept;
+}
+
+/** The summary fields of an output line, or undefined for a line that is not a complete row. */
+function briefOf(line: string, format: "jsonl" | "csv"): (Omit<ScoredLine, "line"> & { size: number; mtimeMs: number }) | undefined {
+  if (format === "jsonl") {
+    try {
+      const r = JSON.parse(line) as SweepRow;
+      if (typeof r.id !== "string") return undefined;
+      return { id: r.id, size: r.size, mtimeMs: r.mtimeMs, status: r.status, ...(r.package ? { package: r.package } : {}), ...(r.risk !== undefined ? { risk: r.risk } : {}), ...(r.band ? { band: r.band } : {}) };
+    } catch {
+      return undefined;
+    }
+  }
+  const f = splitCsvLine(line);
+  const key = f ? csvRowKey(f) : undefined;
+  if (!key || key.id === "id") return undefined;
+  const r = rowFromLine(line, "csv");
+  return { id: key.id, size: key.size, mtimeMs: key.mtimeMs, status: r.status, ...(r.package ? { package: r.package } : {}), ...(r.risk !== undefined ? { risk: r.risk } : {}), ...(r.band ? { band: r.band } : {}) };
 }
 
 export async function sweep(options: SweepOptions): Promise<SweepSummary> {
   let inputs = listInputs(options.source);
   if (options.shard) inputs = inputs.filter((i) => shardOf(i.id, options.shard!.count) === options.shard!.index - 1);
-  const existing = options.resume ? readExisting(options.output, options.format) : new Map();
-  const kept = new Map<string, string>(); // id → line, from the earlier run
-  const todo: SweepInput[] = [];
-  for (const input of inputs) {
-    const prior = existing.get(input.id);
-    if (prior && prior.size === input.size && prior.mtimeMs === input.mtimeMs) kept.set(input.id, prior.line);
-    else todo.push(input);
-  }
+  const tally = new Tally();
+  const kept = options.resume ? compact(options, inputs, tally) : new Set<string>();
+  const todo = inputs.filter((i) => !kept.has(i.id));
 
-  // Append as results arrive; on a fresh run, start the file anew.
+  // Append each batch of results as it arrives; on a fresh run, start the file anew.
   let fd: number;
   try {
-    fd = openSync(options.output, options.resume ? "a" : "w");
-    if (!options.resume && options.format === "csv") writeSync(fd, csvHeader());
+    // After compaction a resumed output already starts with its CSV header.
+    const append = options.resume && existsSync(options.output);
+    fd = openSync(options.output, append ? "a" : "w");
+    if (!append && options.format === "csv") writeSync(fd, csvHeader());
   } catch (e) {
     throw new OutputError(`cannot be written (${(e as { code?: string }).code ?? (e as Error).message})`, { file: options.output });
   }
-  const rows: SweepRow[] = [];
-  const lines = new Map<string, string>(kept);
+  let done = kept.size;
   try {
-    await runPool(todo, options, (row) => {
-      const line = options.format === "jsonl" ? `${JSON.stringify(row)}\n` : rowToCsv(row);
+    await runPool(todo, options, (batch) => {
+      // One write per batch of whole lines: an interruption can tear at most the last line.
+      let text = "";
+      for (const scored of batch) {
+        text += `${scored.line}\n`;
+        tally.add(scored);
+      }
       try {
-        writeSync(fd, line);
+        writeSync(fd, text);
       } catch (e) {
         throw new OutputError(`cannot be written (${(e as { code?: string }).code ?? (e as Error).message})`, { file: options.output });
       }
-      lines.set(row.id, line.slice(0, -1));
-      rows.push(row);
-      options.onProgress?.(kept.size + rows.length, inputs.length);
+      done += batch.length;
+      options.onProgress?.(done, inputs.length);
     });
   } finally {
     closeSync(fd);
   }
-
-  // The final file: every input of this run once, sorted by id.
-  const ids = inputs.map((i) => i.id);
-  const body = ids.map((id) => lines.get(id)).filter((l): l is string => l !== undefined).join("\n");
-  writeFileAtomic(options.output, `${options.format === "csv" ? csvHeader() : ""}${body}${body ? "\n" : ""}`);
-
-  const fresh = new Map(rows.map((r) => [r.id, r]));
-  const all: SweepRow[] = ids.filter((id) => lines.has(id)).map((id) => fresh.get(id) ?? rowFromLine(lines.get(id)!, options.format));
-  const byBand: Record<string, number> = {};
-  for (const r of all) if (r.band) byBand[r.band] = (byBand[r.band] ?? 0) + 1;
-  const top = all
-    .filter((r) => r.risk !== undefined)
-    .sort((a, b) => b.risk! - a.risk! || a.id.localeCompare(b.id))
-    .slice(0, 10)
-    .map((r) => ({ id: r.id, ...(r.package ? { package: r.package } : {}), risk: r.risk!, ...(r.band ? { band: r.band } : {}) }));
   return {
     inputs: inputs.length,
     skipped: kept.size,
-    scored: all.filter((r) => r.status === "scored").length,
-    failed: all.filter((r) => r.status === "failed").length,
-    byBand,
-    top,
-    rows: all,
+    scored: tally.scored,
+    failed: tally.failed,
+    byBand: tally.byBand,
+    top: tally.top,
+    rows: () =>
+      readFileSync(options.output, "utf8")
+        .split("\n")
+        .filter((l) => l && briefOf(l, options.format))
+        .map((l) => rowFromLine(l, options.format))
+        .sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0)),
   };
 }
 

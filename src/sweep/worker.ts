@@ -5,10 +5,11 @@ import { parentPort, workerData } from "node:worker_threads";
 import { readBaselineFile } from "../baseline/baseline-file.js";
 import { Judge } from "../score/check-app.js";
 import type { Level } from "../score/types.js";
-import { scoreInput, type SweepInput } from "./row.js";
+import { scoreToLine, type SweepInput } from "./row.js";
 
 export interface WorkerSetup {
   baselinePath: string;
+  format: "jsonl" | "csv";
   category?: string;
   categoryIndex?: [string, string][];
   levels?: [string, Level | "off"][];
@@ -22,6 +23,7 @@ const options = {
   levels: new Map(setup.levels ?? []),
 };
 
-parentPort!.on("message", (msg: { seq: number; input: SweepInput }) => {
-  parentPort!.postMessage({ seq: msg.seq, row: scoreInput(judge, msg.input, options) });
+// Inputs come in small batches, to keep the messaging cost per app low.
+parentPort!.on("message", (inputs: SweepInput[]) => {
+  parentPort!.postMessage(inputs.map((input) => scoreToLine(judge, input, options, setup.format)));
 });
