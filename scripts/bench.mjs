@@ -307,18 +307,26 @@ if (ONLY.includes("sweep")) {
       for (let i = 0; i < set.count; i++) set.make(join(set.dir, `app-${String(i).padStart(5, "0")}.apk`));
     }
     const files = readdirSync(set.dir).map((f) => join(set.dir, f));
-    // Warm the page cache the same way for both.
-    for (const f of files) floorRead(f);
+    // --cold drops the page cache before each measurement (root only), so both read from the disk;
+    // otherwise both read from a warm cache.
+    const cold = args.includes("--cold");
+    const prepare = () => {
+      if (cold) execFileSync("sh", ["-c", "sync; echo 3 > /proc/sys/vm/drop_caches"]);
+      else for (const f of files) floorRead(f);
+    };
+    prepare();
     let t = process.hrtime.bigint();
     for (const f of files) floorRead(f);
     const floorS = ms(t) / 1000;
     const out = join(OUT, "sweep-results.jsonl");
+    prepare();
     t = process.hrtime.bigint();
     const r = spawnSync("/usr/bin/time", ["-f", "%M", process.execPath, join(ROOT, "bin/overask.js"), "sweep", set.dir, "-o", out, "-j", "2", "-c", "TOOLS"], { stdio: ["ignore", "ignore", "pipe"], encoding: "utf8" });
     const sweepS = ms(t) / 1000;
     const rss = Number(r.stderr.trim().split("\n").pop()) / 1024;
     const fr = files.length / floorS;
     const sr = files.length / sweepS;
+    console.log(`page cache: ${cold ? "dropped before each run (--cold)" : "warm"}`);
     console.log(`floor: ${floorS.toFixed(2)} s, ${Math.round(fr).toLocaleString("en")} apps/s`);
     console.log(`sweep -j 2: ${sweepS.toFixed(2)} s, ${Math.round(sr).toLocaleString("en")} apps/s = ${(sr / fr).toFixed(2)}x the floor's throughput (goal ≥ 0.5x), peak RSS ${rss.toFixed(0)} MB (goal < 300 MB)`);
   }
