@@ -31,6 +31,8 @@ export interface ArchiveEntryInfo {
 export interface ArchiveReader {
   /** Every entry in the central directory, in order. */
   entries(): ArchiveEntryInfo[];
+  /** Oddities met while reading (flags or fields that disagree), for the manifest's notes. */
+  readonly notes: string[];
   /** Reads one entry, checking it against `limit` (a LIMITS name) before and while inflating. */
   read(name: string, limit: LimitName): Uint8Array;
   close(): void;
@@ -200,6 +202,7 @@ function findEocd(buf: Buffer): number {
 type AdmEntry = ReturnType<AdmZip["getEntries"]>[number];
 
 class AdmArchive implements ArchiveReader {
+  readonly notes: string[] = [];
   private readonly zip: AdmZip;
   private readonly list: AdmEntry[];
 
@@ -237,9 +240,12 @@ class AdmArchive implements ArchiveReader {
     if (i.method === "deflated" && i.compressedSize > 0 && i.size / i.compressedSize > LIMITS.MAX_COMPRESSION_RATIO) {
       throw new LimitError("MAX_COMPRESSION_RATIO", Math.round(i.size / i.compressedSize), LIMITS.MAX_COMPRESSION_RATIO, `${name} declares a compression ratio of`);
     }
+    // The central directory is what the platform's zip reader trusts; where an entry's other fields
+    // disagree with it, we read it the same way and say so.
+    if (e.header.flags & 0x1) this.notes.push(`${name} is marked encrypted in the archive but is read as plain, as Android reads it`);
     let compressed: Buffer;
     try {
-      compressed = this.file ? readLocalEntry(this.file, e.header.offset, i, name) : e.getCompressedData();
+      compressed = this.file ? readLocalEntry(this.file, e.header.offset, i, name, this.notes) : e.getCompressedData();
     } catch (err) {
       throw admError(err, name);
     }
@@ -268,10 +274,13 @@ class AdmArchive implements ArchiveReader {
 }
 
 /** Reads an entry's compressed bytes: local header (30 bytes, then name and extra), then data. */
-function readLocalEntry(src: Source, at: number, i: ArchiveEntryInfo, name: string): Buffer {
+function readLocalEntry(src: Source, at: number, i: ArchiveEntryInfo, name: string, notes: string[]): Buffer {
   if (at + LOCAL_HEADER_SIZE > src.size) throw new ArchiveError(`${name}: local header offset ${at} is past the end of the file`);
   const local = src.slice(at, LOCAL_HEADER_SIZE);
   if (local.readUInt32LE(0) !== 0x04034b50) throw new ArchiveError(`${name}: no local header signature at offset ${at}`);
+  const localMethod = local.readUInt16LE(8); // local header: compression method
+  const centralMethod = i.method === "stored" ? 0 : i.method === "deflated" ? 8 : -1;
+  if (localMethod !== centralMethod) notes.push(`${name}: the local header says compression method ${localMethod}, the central directory ${centralMethod}; read by the central directory, as Android does`);
   const dataAt = at + LOCAL_HEADER_SIZE + local.readUInt16LE(26) + local.readUInt16LE(28); // name and extra lengths
   if (dataAt + i.compressedSize > src.size) throw new ArchiveError(`${name}: ${i.compressedSize} bytes of data at ${dataAt} run past the end of the file`);
   return src.slice(dataAt, i.compressedSize);

@@ -143,6 +143,7 @@ function fromArchive(archive: ArchiveReader, options: ReadOptions = {}): Manifes
       resourceTable: hasTable,
     }, resolve);
     if (tableProblem) m.notes.push(`resources.arsc could not be read (${tableProblem}); references are shown as ids`);
+    m.notes.push(...archive.notes);
     return m;
   } finally {
     archive.close();

@@ -86,10 +86,15 @@ export function parsePlainXml(bytes: Uint8Array): XmlDocument {
 
   let result: { [root: string]: Xml2jsNode } | undefined;
   let failure: unknown;
-  parser.parseString(text, (err: unknown, res: { [root: string]: Xml2jsNode }) => {
-    if (err) failure = err;
-    else result = res;
-  });
+  try {
+    parser.parseString(text, (err: unknown, res: { [root: string]: Xml2jsNode }) => {
+      if (err) failure ??= err;
+      else result = res;
+    });
+  } catch (e) {
+    // xml2js rethrows some parser errors instead of passing them to the callback.
+    failure ??= e;
+  }
   if (limitHit) throw limitHit;
   if (failure) {
     const msg = failure instanceof Error ? failure.message.split("\n").filter(Boolean).join(", ") : String(failure);
