@@ -12,7 +12,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { Worker, isMainThread, parentPort, workerData } from "node:worker_threads";
-import { deflateRawSync } from "node:zlib";
+import { deflateRawSync, inflateRawSync } from "node:zlib";
 
 const ROOT = fileURLToPath(new URL("../", import.meta.url));
 const LIMIT_MS = 2000;
@@ -21,16 +21,8 @@ const LIMIT_RSS_MB = 512;
 // ---------------------------------------------------------------------------------------------
 // Seeds and mutations (used by both threads; deterministic for a seed and an iteration number).
 
-function rng(seed) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+// The project's own seeded generator (mulberry32), from the build.
+const { seededRandom: rng } = await import(new URL("../dist/util/random.js", import.meta.url).href);
 
 function unzipEntry(zipBytes, name) {
   // Tiny reader for seeds only: find the entry in the central directory and inflate it.
@@ -47,15 +39,11 @@ function unzipEntry(zipBytes, name) {
     const at = b.readUInt32LE(p + 42);
     if (entry === name) {
       const data = b.subarray(at + 30 + b.readUInt16LE(at + 26) + b.readUInt16LE(at + 28)), body = data.subarray(0, csize);
-      return method === 8 ? (await_inflate(body)) : Buffer.from(body);
+      return method === 8 ? inflateRawSync(body) : Buffer.from(body);
     }
     p += 46 + n + b.readUInt16LE(p + 30) + b.readUInt16LE(p + 32);
   }
   return undefined;
-}
-import { inflateRawSync } from "node:zlib";
-function await_inflate(b) {
-  return inflateRawSync(b);
 }
 
 function loadSeeds() {
