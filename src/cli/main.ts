@@ -28,13 +28,26 @@ export async function run(argv: string[], io: Io = defaultIo): Promise<number> {
     .option("--debug", "print stack traces for errors")
     .showHelpAfterError("(run overask --help for usage)")
     .configureOutput({ writeOut: (s) => io.stdout.write(s), writeErr: (s) => io.stderr.write(s) })
+    .addHelpText(
+      "after",
+      [
+        "",
+        "Exit codes:",
+        "  0  done",
+        "  1  a --fail-on or --max-risk gate was hit (check)",
+        "  2  wrong command line",
+        "  3  an input could not be read (the others were still reported)",
+        "  4  internal error (rerun with --debug)",
+        "  5  an output could not be written",
+      ].join("\n"),
+    )
     .exitOverride();
 
   const collect = (v: string, prev: string[] = []) => [...prev, v];
   program
     .command("facts")
-    .description("read APKs or manifests (binary or plain XML) and print what they declare")
-    .argument("<file...>", "APK, binary AndroidManifest.xml or plain AndroidManifest.xml files")
+    .description("read APKs, app bundles or manifests and print what they declare")
+    .argument("<file...>", "APKs, app bundles (.aab), multi-APK archives, binary, protobuf or plain AndroidManifest.xml files")
     .addOption(new Option("-f, --format <format>", "output format").choices(["text", "json"]).default("text"))
     .action(async (files: string[], opts: { format: "text" | "json" }) => {
       // Commands load their modules when run, so `--help` and `--version` start fast.
