@@ -1,5 +1,5 @@
 import { spawn } from "node:child_process";
-import { copyFileSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } from "node:fs";
+import { copyFileSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, statSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
@@ -95,27 +95,49 @@ describe("overask sweep", () => {
   });
 
   it("ends with every input exactly once when killed at any point and resumed (SIGKILL, several points)", async () => {
-    const dir = inventory("killed", 30); // 30 × 7 APKs + a bundle + a broken file
-    const expected = (await (async () => {
+    const dir = inventory("killed", 120); // 120 × 7 APKs + a bundle + a broken file
+    const expected = await (async () => {
       const out = join(base, "killed-full.jsonl");
       await cli(["sweep", dir, "-o", out, "-b", DEMO, "-j", "1"]);
       return ids(out);
-    })());
-    for (const delay of [150, 400, 700, 1000]) {
-      const out = join(base, `killed-${delay}.jsonl`);
+    })();
+    // Kill points: before any output, and at several depths into the run (once rows have appeared).
+    let midRun = 0;
+    for (const [afterBytes, extraMs] of [[-1, 50], [1, 0], [1, 5], [1, 15], [1, 30], [20_000, 0], [60_000, 0]] as const) {
+      const out = join(base, `killed-${afterBytes}-${extraMs}.jsonl`);
       await new Promise<void>((resolve) => {
         const child = spawn(process.execPath, [`${ROOT}bin/overask.js`, "sweep", dir, "-o", out, "-b", DEMO, "-j", "2"], { stdio: "ignore" });
-        const timer = setTimeout(() => child.kill("SIGKILL"), delay);
+        const started = Date.now();
+        const poll = setInterval(() => {
+          let size = 0;
+          try {
+            size = statSync(out).size;
+          } catch {
+            /* not created yet */
+          }
+          if ((afterBytes < 0 && Date.now() - started > extraMs) || (afterBytes >= 0 && size >= afterBytes)) {
+            clearInterval(poll);
+            setTimeout(() => child.kill("SIGKILL"), afterBytes < 0 ? 0 : extraMs);
+          }
+        }, 2);
         child.on("exit", () => {
-          clearTimeout(timer);
+          clearInterval(poll);
           resolve();
         });
       });
+      let partial = 0;
+      try {
+        partial = readFileSync(out, "utf8").split("\n").filter(Boolean).length;
+      } catch {
+        /* killed before the file was made */
+      }
+      if (partial > 0 && partial < expected.length) midRun++;
       const { code } = await cli(["sweep", dir, "-o", out, "-b", DEMO, "-j", "2", "--resume"]);
       expect(code).toBe(EXIT.INPUT); // the broken file
       expect(ids(out)).toEqual(expected);
     }
-  }, 120_000);
+    expect(midRun).toBeGreaterThanOrEqual(3); // most kills landed while rows were being written
+  }, 180_000);
 
   it("writes CSV with a header, and resumes from it", async () => {
     const dir = inventory("csv");
