@@ -207,7 +207,7 @@ class AdmArchive implements ArchiveReader {
   private readonly list: AdmEntry[];
 
   constructor(
-    private readonly buf: Buffer,
+    buf: Buffer,
     private readonly onClose: () => void,
     /** When set, `buf` holds only the central directory and entry data is read from this source. */
     private readonly file?: Source,

@@ -80,11 +80,6 @@ export function chunksOf(bytes: Uint8Array): { type: number; bytes: Uint8Array }
   return out;
 }
 
-/** Reads all strings of a pool chunk produced by a toolchain (no styles). */
-export function poolStrings(chunk: Uint8Array, decode: (i: number) => string | undefined, count: number): string[] {
-  return Array.from({ length: count }, (_, i) => decode(i) ?? "");
-}
-
 /** A minimal valid manifest: <manifest package="org.example.tiny"><uses-permission android:name="…"/></manifest>. */
 export function tinyManifest(permission = "android.permission.INTERNET", utf8 = false): Uint8Array {
   // strings: 0 name (attr, id 0x01010003), 1 android uri, 2 package, 3 manifest, 4 org.example.tiny, 5 uses-permission, 6 permission, 7 android

@@ -18,7 +18,6 @@ import {
   RES_XML_RESOURCE_MAP_TYPE,
   RES_XML_START_ELEMENT_TYPE,
   RES_XML_START_NAMESPACE_TYPE,
-  RES_XML_TYPE,
   StringPool,
   readChunkHeader,
 } from "./chunks.js";
