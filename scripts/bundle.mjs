@@ -5,7 +5,7 @@
 import { build } from "esbuild";
 
 await build({
-  entryPoints: { main: "src/cli/main.ts", "sweep-worker": "src/sweep/worker.ts" },
+  entryPoints: { main: "src/cli/main.ts", "sweep-worker": "src/ops/sweep/worker.ts" },
   outdir: "dist/bundle",
   bundle: true,
   splitting: true,

@@ -1,6 +1,6 @@
 /** `overask check`: reading inputs, judging them, printing, and the exit code that gates a build. */
 import { join } from "node:path";
-import { packageRoot } from "../util/package-root.js";
+import { packageRoot } from "../ops/package-root.js";
 import { readBaselineFile } from "../baseline/baseline-file.js";
 import { openCorpus } from "../baseline/corpus/index.js";
 import { InputError } from "../errors.js";
@@ -9,7 +9,7 @@ import { checkToJson, checkToText, type CheckRun } from "../report/check.js";
 import { checkToSarif } from "../report/sarif.js";
 import { pickStyle } from "../report/style.js";
 import { readCategoryIndex } from "../score/category.js";
-import { Judge, type JudgeOptions } from "../score/check-app.js";
+import { Judge, type JudgeOptions } from "../score/judge.js";
 import { scoreRecord } from "../score/records.js";
 import { checkById } from "../score/registry.js";
 import { levelRank, type Level } from "../score/types.js";

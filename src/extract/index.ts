@@ -8,9 +8,9 @@ import { InputError, LimitError, withFile } from "../errors.js";
 import { LIMITS } from "../limits.js";
 import { decodeBinaryXml, looksLikeBinaryXml } from "./binary/binary-xml.js";
 import { ResourceTable } from "./binary/resource-table.js";
-import { buildManifest, type ReferenceResolver } from "./build-manifest.js";
-import { looksLikeZip, openArchiveBytes, openArchiveFd, type ArchiveEntryInfo, type ArchiveReader } from "./archive.js";
-import { requestedPermissionNames, type Manifest } from "./model.js";
+import { buildManifest, type ReferenceResolver } from "./manifest/build.js";
+import { looksLikeZip, openArchiveBytes, openArchiveFd, type ArchiveEntryInfo, type ArchiveReader } from "./containers/zip.js";
+import { requestedPermissionNames, type Manifest } from "./manifest/model.js";
 import { parsePlainXml } from "./plain-xml.js";
 import { decodeProtoXml, looksLikeProtoXml, protoResourceResolver } from "./proto/proto-xml.js";
 

@@ -5,7 +5,7 @@
  */
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
-import { packageRoot } from "../util/package-root.js";
+import { packageRoot } from "../ops/package-root.js";
 import { protectionFromText, type BaseLevel } from "./protection.js";
 
 export const PLATFORM_TABLE_VERSION = "android-34 (framework core/res/AndroidManifest.xml; see src/platform/data/SOURCES.md)";

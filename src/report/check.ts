@@ -2,7 +2,7 @@
  * Formatters for `overask check`: text for a person, JSON for machines (docs/check-json.md).
  * Pure functions from results to strings.
  */
-import type { CheckResult } from "../score/check-app.js";
+import type { CheckResult } from "../score/judge.js";
 import type { CategoryChoice } from "../score/category.js";
 import { checkById } from "../score/registry.js";
 import type { RiskEstimate } from "../score/risk.js";

@@ -1,7 +1,7 @@
 /**
  * Formatters for `overask facts`: pure functions from results to text.
  */
-import { MANIFEST_SCHEMA_VERSION, type Component, type Manifest, type RequestedPermission } from "../extract/model.js";
+import { MANIFEST_SCHEMA_VERSION, type Component, type Manifest, type RequestedPermission } from "../extract/manifest/model.js";
 import { TOOL_VERSION } from "../version.js";
 import { PLAIN, fit, wrap, type Style } from "./style.js";
 

@@ -6,7 +6,7 @@
  */
 import type { Baseline } from "../baseline/rates.js";
 import { CHECKS } from "../score/registry.js";
-import type { SweepRow, SweepSummary } from "../sweep/index.js";
+import type { SweepRow, SweepSummary } from "../ops/sweep/index.js";
 import { TOOL_VERSION } from "../version.js";
 
 export interface HtmlReportInput {

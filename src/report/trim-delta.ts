@@ -1,6 +1,6 @@
 /** Formatters for `overask trim` and `overask delta`. */
 import type { Delta } from "../score/delta.js";
-import { snippetFor, type TrimPlan } from "../score/trim.js";
+import { snippetFor, type TrimPlan } from "../score/trim/plan.js";
 import { TOOLS_NS } from "../extract/xml-tree.js";
 import { TOOL_VERSION } from "../version.js";
 import { messageOf } from "./check.js";

@@ -6,8 +6,8 @@
 import { readFileSync } from "node:fs";
 import type { Baseline, Fallback } from "../baseline/rates.js";
 import { CorpusError } from "../errors.js";
-import type { Manifest } from "../extract/model.js";
-import { splitCsvLine } from "../baseline/corpus/csv.js";
+import type { Manifest } from "../extract/manifest/model.js";
+import { splitCsvLine } from "../util/csv.js";
 
 export interface CategoryChoice {
   /** The baseline category used; absent when the pooled baseline is used. */

@@ -1,8 +1,8 @@
 /**
  * `delta`: what changed between two versions of an app that a reviewer of an update needs to see.
  */
-import { requestedPermissionNames } from "../extract/model.js";
-import type { CheckResult } from "./check-app.js";
+import { requestedPermissionNames } from "../extract/manifest/model.js";
+import type { CheckResult } from "./judge.js";
 import type { Finding } from "./types.js";
 
 export interface AppVersion {

@@ -3,7 +3,7 @@
  * already extracted elsewhere are screened. One result per record with its id, category and risk.
  */
 import type { CorpusRecord } from "../baseline/corpus/types.js";
-import type { Judge } from "./check-app.js";
+import type { Judge } from "./judge.js";
 import { isSensitive } from "../baseline/features.js";
 import { bandOf, type Band } from "./risk.js";
 

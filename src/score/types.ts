@@ -3,7 +3,7 @@
  * findings carrying data for the message, never a formatted string, so every formatter words it alike.
  */
 import type { Baseline, PermissionRate } from "../baseline/rates.js";
-import type { Manifest, SourceLocation } from "../extract/model.js";
+import type { Manifest, SourceLocation } from "../extract/manifest/model.js";
 import type { CategoryChoice } from "./category.js";
 
 /** SARIF's levels, most severe first. */

@@ -3,7 +3,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { openCorpus, detectCorpusFormat, type CorpusOptions, type CorpusRecord } from "../../src/baseline/corpus/index.js";
-import { splitCsvLine } from "../../src/baseline/corpus/csv.js";
+import { splitCsvLine } from "../../src/util/csv.js";
 import { ROOT } from "../helpers/paths.js";
 
 const dir = mkdtempSync(join(tmpdir(), "overask-corpus-"));

@@ -9,7 +9,7 @@ import { describe, expect, it } from "vitest";
 import { BinaryXmlError, InputError } from "../../src/errors.js";
 import { decodeProtoXml } from "../../src/extract/proto/proto-xml.js";
 import { readManifestBytes, readManifestFile } from "../../src/extract/index.js";
-import type { Manifest } from "../../src/extract/model.js";
+import type { Manifest } from "../../src/extract/manifest/model.js";
 import { diffAgainstDump, parsePermissionsDump, readXmltree } from "../helpers/aapt-dump.js";
 import { DUMP_DIR, FIXTURES } from "../helpers/paths.js";
 

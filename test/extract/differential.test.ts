@@ -10,7 +10,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { readManifestBytes, readManifestFile } from "../../src/extract/index.js";
-import type { Manifest } from "../../src/extract/model.js";
+import type { Manifest } from "../../src/extract/manifest/model.js";
 import { platformPermissions } from "../../src/platform/permissions.js";
 import { pick, randomInt, seededRandom, type Random } from "../../src/util/random.js";
 import { parsePermissionsDump } from "../helpers/aapt-dump.js";

@@ -1,6 +1,6 @@
 import { readBaselineFile } from "../../src/baseline/baseline-file.js";
 import { readManifestBytes } from "../../src/extract/index.js";
-import { Judge, type JudgeOptions } from "../../src/score/check-app.js";
+import { Judge, type JudgeOptions } from "../../src/score/judge.js";
 import { ROOT } from "./paths.js";
 
 export const demoJudge = new Judge(readBaselineFile(`${ROOT}baselines/harbourview-demo.json`));

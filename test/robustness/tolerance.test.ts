@@ -7,7 +7,7 @@ import { describe, expect, it } from "vitest";
 import { ByteReader } from "../../src/extract/binary/reader.js";
 import { StringPool, readChunkHeader } from "../../src/extract/binary/chunks.js";
 import { readManifestBytes } from "../../src/extract/index.js";
-import { requestedPermissionNames } from "../../src/extract/model.js";
+import { requestedPermissionNames } from "../../src/extract/manifest/model.js";
 import { chunksOf, stringPool, u16, u32, xmlDocument } from "../helpers/axml.js";
 import { APK_DIR, APK_VARIANTS } from "../helpers/paths.js";
 

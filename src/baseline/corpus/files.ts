@@ -5,9 +5,9 @@
 import { dirname, resolve } from "node:path";
 import { InputError } from "../../errors.js";
 import { readManifestFile } from "../../extract/index.js";
-import { requestedPermissionNames } from "../../extract/model.js";
+import { requestedPermissionNames } from "../../extract/manifest/model.js";
 import { Ledger, lines } from "./common.js";
-import { splitCsvLine } from "./csv.js";
+import { splitCsvLine } from "../../util/csv.js";
 import type { CorpusOptions, CorpusRecord } from "./types.js";
 
 export async function* readFileIndex(path: string, options: CorpusOptions, ledger: Ledger): AsyncGenerator<CorpusRecord> {

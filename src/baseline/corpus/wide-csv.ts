@@ -6,7 +6,7 @@ import { readFileSync } from "node:fs";
 import { CorpusError } from "../../errors.js";
 import { normalizePermissionName } from "../../platform/permissions.js";
 import { Ledger, lines } from "./common.js";
-import { splitCsvLine } from "./csv.js";
+import { splitCsvLine } from "../../util/csv.js";
 import type { CorpusOptions, CorpusRecord } from "./types.js";
 
 /** Reads the permission column names from a column file: first CSV field, filtered by the second when asked. */

@@ -7,7 +7,7 @@ import { readFileSync } from "node:fs";
 import { join } from "node:path";
 import protobuf from "protobufjs";
 import { BinaryXmlError } from "../../errors.js";
-import { packageRoot } from "../../util/package-root.js";
+import { packageRoot } from "../../ops/package-root.js";
 import { LIMITS } from "../../limits.js";
 import { checkLimit } from "../binary/reader.js";
 import { typedValue, type TypedValue } from "../binary/values.js";

@@ -1,5 +1,5 @@
 /** exported-unguarded: components other apps can reach without holding any permission. */
-import type { Component } from "../../extract/model.js";
+import type { Component } from "../../extract/manifest/model.js";
 import type { Check } from "../types.js";
 
 /** The launcher entry point is meant to be reachable by everyone. */

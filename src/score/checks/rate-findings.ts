@@ -1,5 +1,5 @@
 /** Shared by the two rate checks: which requested permissions are uncommon, with the numbers behind it. */
-import { requestedPermissionNames } from "../../extract/model.js";
+import { requestedPermissionNames } from "../../extract/manifest/model.js";
 import { platformPermission } from "../../platform/permissions.js";
 import type { CheckContext, Finding, FindingData } from "../types.js";
 

@@ -2,10 +2,10 @@
  * `trim`: the requested permissions worth removing (or limiting), ranked by how much each lowers the
  * risk, with the exact change to the source manifest.
  */
-import { requestedPermissionNames, type Manifest, type RequestedPermission } from "../extract/model.js";
-import type { CheckResult } from "./check-app.js";
-import type { PermissionOrigin } from "./merge-report.js";
-import { levelRank, type Level } from "./types.js";
+import { requestedPermissionNames, type Manifest, type RequestedPermission } from "../../extract/manifest/model.js";
+import type { CheckResult } from "../judge.js";
+import type { PermissionOrigin } from "../merge-report.js";
+import { levelRank, type Level } from "../types.js";
 
 const TRIM_CHECKS = new Set(["sensitive-uncommon", "uncommon-for-category", "ungrantable-permission", "no-effect-at-target", "unknown-permission"]);
 

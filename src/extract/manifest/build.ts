@@ -2,10 +2,10 @@
  * Builds the Manifest model from an XML tree, whichever reader produced it. Binary input gives typed
  * values; plain input gives text. The helpers here read both the way the platform's package parser does.
  */
-import { ManifestError } from "../errors.js";
-import { normalizePermissionName, platformPermission } from "../platform/permissions.js";
-import { protectionFromInt, protectionFromText } from "../platform/protection.js";
-import { formatResourceId, valueToText, type TypedValue } from "./binary/values.js";
+import { ManifestError } from "../../errors.js";
+import { normalizePermissionName, platformPermission } from "../../platform/permissions.js";
+import { protectionFromInt, protectionFromText } from "../../platform/protection.js";
+import { formatResourceId, valueToText, type TypedValue } from "../binary/values.js";
 import {
   MANIFEST_SCHEMA_VERSION,
   type Component,
@@ -18,7 +18,7 @@ import {
   type RequestedPermission,
   type SourceLocation,
 } from "./model.js";
-import { ANDROID_NS, TOOLS_NS, type XmlAttribute, type XmlDocument, type XmlElement } from "./xml-tree.js";
+import { ANDROID_NS, TOOLS_NS, type XmlAttribute, type XmlDocument, type XmlElement } from "../xml-tree.js";
 
 /** Resolves a resource reference to its default-configuration value (from resources.arsc). */
 export type ReferenceResolver = (id: number) => TypedValue | undefined;

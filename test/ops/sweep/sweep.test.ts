@@ -3,9 +3,9 @@ import { copyFileSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, statSy
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
-import { EXIT } from "../../src/cli/exit-codes.js";
-import { cli } from "../helpers/cli.js";
-import { APK_DIR, FIXTURES, ROOT } from "../helpers/paths.js";
+import { EXIT } from "../../../src/cli/exit-codes.js";
+import { cli } from "../../helpers/cli.js";
+import { APK_DIR, FIXTURES, ROOT } from "../../helpers/paths.js";
 
 const DEMO = `${ROOT}baselines/harbourview-demo.json`;
 const base = mkdtempSync(join(tmpdir(), "overask-sweep-"));

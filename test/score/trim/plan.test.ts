@@ -2,12 +2,12 @@ import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
-import { EXIT } from "../../src/cli/exit-codes.js";
-import { readManifestFile } from "../../src/extract/index.js";
-import { requestedPermissionNames } from "../../src/extract/model.js";
-import { parseMergeReport } from "../../src/score/merge-report.js";
-import { cli } from "../helpers/cli.js";
-import { FIXTURES } from "../helpers/paths.js";
+import { EXIT } from "../../../src/cli/exit-codes.js";
+import { readManifestFile } from "../../../src/extract/index.js";
+import { requestedPermissionNames } from "../../../src/extract/manifest/model.js";
+import { parseMergeReport } from "../../../src/score/merge-report.js";
+import { cli } from "../../helpers/cli.js";
+import { FIXTURES } from "../../helpers/paths.js";
 
 const dir = mkdtempSync(join(tmpdir(), "overask-trim-"));
 const SOURCE = `${FIXTURES}apps/pocketlamp/AndroidManifest.xml`;

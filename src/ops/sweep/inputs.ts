@@ -5,10 +5,10 @@
  */
 import { closeSync, openSync, readFileSync, readSync, readdirSync, statSync } from "node:fs";
 import { join, relative, resolve, dirname, sep } from "node:path";
-import { splitCsvLine } from "../baseline/corpus/csv.js";
-import { InputError } from "../errors.js";
-import { detectKind } from "../extract/index.js";
-import type { SweepInput } from "./row.js";
+import { splitCsvLine } from "../../util/csv.js";
+import { InputError } from "../../errors.js";
+import { detectKind } from "../../extract/index.js";
+import type { SweepInput } from "./rows.js";
 
 function head(path: string): Uint8Array {
   const fd = openSync(path, "r");

@@ -17,8 +17,8 @@
 import { closeSync, fstatSync, openSync, readSync } from "node:fs";
 import { crc32, inflateRawSync } from "node:zlib";
 import AdmZip from "adm-zip";
-import { ArchiveError, LimitError } from "../errors.js";
-import { LIMITS, type LimitName } from "../limits.js";
+import { ArchiveError, LimitError } from "../../errors.js";
+import { LIMITS, type LimitName } from "../../limits.js";
 
 export interface ArchiveEntryInfo {
   name: string;

@@ -4,12 +4,12 @@ import { join } from "node:path";
 import { randomBytes } from "node:crypto";
 import AdmZip from "adm-zip";
 import { describe, expect, it } from "vitest";
-import { ArchiveError, InputError, LimitError } from "../../src/errors.js";
-import { openArchiveBytes, openArchiveFile } from "../../src/extract/archive.js";
-import { readManifestBytes, readManifestFile } from "../../src/extract/index.js";
-import { LIMITS } from "../../src/limits.js";
-import { tinyManifest } from "../helpers/axml.js";
-import { APK_DIR } from "../helpers/paths.js";
+import { ArchiveError, InputError, LimitError } from "../../../src/errors.js";
+import { openArchiveBytes, openArchiveFile } from "../../../src/extract/containers/zip.js";
+import { readManifestBytes, readManifestFile } from "../../../src/extract/index.js";
+import { LIMITS } from "../../../src/limits.js";
+import { tinyManifest } from "../../helpers/axml.js";
+import { APK_DIR } from "../../helpers/paths.js";
 
 const dir = mkdtempSync(join(tmpdir(), "overask-archive-"));
 

@@ -3,7 +3,7 @@
  * Documented for JSON consumers in docs/manifest-json.md; bump MANIFEST_SCHEMA_VERSION on any change
  * that could break a reader.
  */
-import type { BaseLevel } from "../platform/protection.js";
+import type { BaseLevel } from "../../platform/protection.js";
 
 export const MANIFEST_SCHEMA_VERSION = 1;
 

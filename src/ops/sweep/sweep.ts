@@ -8,13 +8,13 @@
 import { closeSync, existsSync, openSync, readFileSync, writeSync } from "node:fs";
 import { join } from "node:path";
 import { Worker } from "node:worker_threads";
-import { readBaselineFile, writeFileAtomic } from "../baseline/baseline-file.js";
-import { splitCsvLine } from "../baseline/corpus/csv.js";
-import { InputError, OutputError } from "../errors.js";
-import { Judge, type JudgeOptions } from "../score/check-app.js";
-import { packageRoot } from "../util/package-root.js";
+import { readBaselineFile, writeFileAtomic } from "../../baseline/baseline-file.js";
+import { splitCsvLine } from "../../util/csv.js";
+import { InputError, OutputError } from "../../errors.js";
+import { Judge, type JudgeOptions } from "../../score/judge.js";
+import { packageRoot } from "../package-root.js";
 import { listInputs, shardOf } from "./inputs.js";
-import { csvHeader, csvRowKey, scoreToLine, type ScoredLine, type SweepInput, type SweepRow } from "./row.js";
+import { csvHeader, csvRowKey, scoreToLine, type ScoredLine, type SweepInput, type SweepRow } from "./rows.js";
 import type { WorkerSetup } from "./worker.js";
 
 export interface SweepOptions {

@@ -3,10 +3,10 @@
  * `id` is the input's path as listed, stable across runs; `size` and `mtimeMs` identify its content for
  * `--resume`.
  */
-import { InputError } from "../errors.js";
-import { readManifestFile } from "../extract/index.js";
-import type { Judge, JudgeOptions } from "../score/check-app.js";
-import type { Level } from "../score/types.js";
+import { InputError } from "../../errors.js";
+import { readManifestFile } from "../../extract/index.js";
+import type { Judge, JudgeOptions } from "../../score/judge.js";
+import type { Level } from "../../score/types.js";
 
 export const SWEEP_SCHEMA_VERSION = 1;
 

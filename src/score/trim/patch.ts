@@ -2,10 +2,10 @@
  * Applies a trim plan to the text of a plain source manifest, changing only the elements concerned and
  * leaving every other line, comment and indentation as it was.
  */
-import { InputError } from "../errors.js";
-import { TOOLS_NS } from "../extract/xml-tree.js";
-import type { TrimCandidate, TrimPlan } from "./trim.js";
-import { snippetFor } from "./trim.js";
+import { InputError } from "../../errors.js";
+import { TOOLS_NS } from "../../extract/xml-tree.js";
+import type { TrimCandidate, TrimPlan } from "./plan.js";
+import { snippetFor } from "./plan.js";
 
 interface Edit {
   at: number;

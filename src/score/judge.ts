@@ -5,7 +5,7 @@
 import type { BaselineFile } from "../baseline/baseline-file.js";
 import { baselineOf } from "../baseline/baseline-file.js";
 import type { Baseline, PermissionRate } from "../baseline/rates.js";
-import { requestedPermissionNames, type Manifest } from "../extract/model.js";
+import { requestedPermissionNames, type Manifest } from "../extract/manifest/model.js";
 import { chooseCategory, type CategoryChoice } from "./category.js";
 import { CHECKS } from "./registry.js";
 import { RiskScorer, type RiskEstimate } from "./risk.js";

@@ -2,10 +2,10 @@
  * A sweep worker thread: loads the baseline once, then reads and judges the inputs it is sent.
  */
 import { parentPort, workerData } from "node:worker_threads";
-import { readBaselineFile } from "../baseline/baseline-file.js";
-import { Judge } from "../score/check-app.js";
-import type { Level } from "../score/types.js";
-import { scoreToLine, type SweepInput } from "./row.js";
+import { readBaselineFile } from "../../baseline/baseline-file.js";
+import { Judge } from "../../score/judge.js";
+import type { Level } from "../../score/types.js";
+import { scoreToLine, type SweepInput } from "./rows.js";
 
 export interface WorkerSetup {
   baselinePath: string;
