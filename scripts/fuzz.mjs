@@ -263,7 +263,7 @@ async function runOne(lib, input, tmp) {
     case "csv": {
       const path = join(tmp, `corpus.${input.kind}`);
       writeFileSync(path, input.bytes);
-      const c = lib.openCorpus(path, { format: input.kind === "csv" ? "wide-csv" : "jsonl", labelField: input.kind === "csv" ? "class" : "label" });
+      const c = lib.openCorpusFile(path, { format: input.kind === "csv" ? "wide-csv" : "jsonl", labelField: input.kind === "csv" ? "class" : "label" });
       for await (const _ of c.records);
       return;
     }
@@ -274,9 +274,12 @@ if (!isMainThread) {
   const lib = await import(join(ROOT, "dist/index.js"));
   const seeds = loadSeeds();
   const tmp = mkdtempSync(join(tmpdir(), "overask-fuzz-"));
-  const { seed, from, to } = workerData;
+  const { seed, from, to, crashers } = workerData;
   for (let i = from; i < to; i++) {
-    const input = makeInput(seeds, seed, i);
+    // Replaying kept crashers, or a generated input.
+    const input = crashers
+      ? { kind: crashers[i].kind, seed: crashers[i].name, mutator: "crasher", bytes: readFileSync(join(ROOT, "fixtures/crashers", `${crashers[i].name}.bin`)) }
+      : makeInput(seeds, seed, i);
     parentPort.postMessage({ type: "start", i, at: Date.now() });
     let problem;
     try {
@@ -307,42 +310,55 @@ if (isMainThread && process.argv[1] === fileURLToPath(import.meta.url)) {
   let peakRss = 0;
   const byMutator = {};
 
-  let next = 0;
-  while (next < iterations) {
-    const from = next;
-    await new Promise((resolve) => {
-      const w = new Worker(fileURLToPath(import.meta.url), { workerData: { seed, from, to: iterations } });
-      let current = { i: from, at: Date.now() };
-      const timer = setInterval(() => {
-        peakRss = Math.max(peakRss, process.memoryUsage().rss / 1024 / 1024);
-        if (Date.now() - current.at > LIMIT_MS) {
-          problems.push({ i: current.i, problem: `hang: no result after ${LIMIT_MS} ms` });
+  // First the inputs that once broke an invariant (fixtures/crashers/), each under the same watchdog:
+  // a typed error or a result within LIMIT_MS.
+  const crashers = JSON.parse(readFileSync(join(ROOT, "fixtures/crashers/index.json"), "utf8"));
+  const crasherProblems = [];
+  await watch({ seed, crashers }, crashers.length, crasherProblems, {});
+  for (const p of crasherProblems) console.log(`fuzz: kept crasher ${crashers[p.i].name} breaks an invariant again: ${p.problem}`);
+  console.log(`fuzz: replayed ${crashers.length} kept crashers under the ${LIMIT_MS} ms watchdog; ${crasherProblems.length} broke an invariant`);
+
+  await watch({ seed }, iterations, problems, byMutator);
+  const seconds = (Date.now() - started) / 1000;
+
+  /** Runs inputs 0..count−1 on a worker; a hang past LIMIT_MS or a dead worker is a problem, and the run goes on after it. */
+  async function watch(data, count, problems, byMutator) {
+    let next = 0;
+    while (next < count) {
+      const from = next;
+      await new Promise((resolve) => {
+        const w = new Worker(fileURLToPath(import.meta.url), { workerData: { ...data, from, to: count } });
+        let current = { i: from, at: Date.now() };
+        const timer = setInterval(() => {
+          peakRss = Math.max(peakRss, process.memoryUsage().rss / 1024 / 1024);
+          if (Date.now() - current.at > LIMIT_MS) {
+            problems.push({ i: current.i, problem: `hang: no result after ${LIMIT_MS} ms` });
+            next = current.i + 1;
+            clearInterval(timer);
+            void w.terminate().then(resolve);
+          }
+        }, 100);
+        w.on("message", (m) => {
+          if (m.type === "start") current = m;
+          else if (m.type === "done") {
+            byMutator[m.mutator] = (byMutator[m.mutator] ?? 0) + 1;
+            if (m.problem) problems.push({ i: m.i, problem: m.problem });
+            next = m.i + 1;
+          } else if (m.type === "end") {
+            next = count;
+            clearInterval(timer);
+            void w.terminate().then(resolve);
+          }
+        });
+        w.on("error", (e) => {
+          problems.push({ i: current.i, problem: `worker died: ${e.message}` });
           next = current.i + 1;
           clearInterval(timer);
-          void w.terminate().then(resolve);
-        }
-      }, 100);
-      w.on("message", (m) => {
-        if (m.type === "start") current = m;
-        else if (m.type === "done") {
-          byMutator[m.mutator] = (byMutator[m.mutator] ?? 0) + 1;
-          if (m.problem) problems.push({ i: m.i, problem: m.problem });
-          next = m.i + 1;
-        } else if (m.type === "end") {
-          next = iterations;
-          clearInterval(timer);
-          void w.terminate().then(resolve);
-        }
+          resolve();
+        });
       });
-      w.on("error", (e) => {
-        problems.push({ i: current.i, problem: `worker died: ${e.message}` });
-        next = current.i + 1;
-        clearInterval(timer);
-        resolve();
-      });
-    });
+    }
   }
-  const seconds = (Date.now() - started) / 1000;
 
   // Minimize and keep what broke an invariant.
   const saved = [];
@@ -385,5 +401,5 @@ if (isMainThread && process.argv[1] === fileURLToPath(import.meta.url)) {
   console.log(`fuzz: ${iterations} iterations (seed ${seed}) in ${seconds.toFixed(1)} s = ${Math.round(iterations / seconds)}/s; ${problems.length} broke an invariant; peak RSS ${peakRss.toFixed(0)} MB (limit ${LIMIT_RSS_MB})`);
   console.log(`  by mutation: ${Object.entries(byMutator).sort().map(([k, v]) => `${k} ${v}`).join(", ")}`);
   for (const s of saved.slice(0, 20)) console.log(`  ${s.problem} — ${s.mutator} of ${s.seed} (iteration ${s.iteration}, ${s.bytes} bytes after minimizing)${save ? ` → fixtures/crashers/${s.name}.bin` : ""}`);
-  process.exitCode = problems.length ? 1 : 0;
+  process.exitCode = problems.length || crasherProblems.length ? 1 : 0;
 }

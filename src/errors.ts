@@ -11,13 +11,20 @@ export class InputError extends Error {
   override name = "InputError";
   /** Path or label of the input concerned; set by whoever knows it (often the caller, after the fact). */
   file?: string;
-  constructor(message: string, options?: { file?: string; cause?: unknown }) {
+  /** The archive entry concerned (`split_a.apk`, `feature/manifest/AndroidManifest.xml`), when inside one. */
+  entry?: string;
+  constructor(message: string, options?: { file?: string; entry?: string; cause?: unknown }) {
     super(message, options?.cause === undefined ? undefined : { cause: options.cause });
     this.file = options?.file;
+    if (options?.entry !== undefined) this.entry = options.entry;
   }
-  /** One line for a person: `file: message`. */
+  /** What is wrong, with the archive entry when there is one: `entry: message`. */
+  detail(): string {
+    return this.entry ? `${this.entry}: ${this.message}` : this.message;
+  }
+  /** One line for a person: `file: entry: message`. */
   describe(): string {
-    return this.file ? `${this.file}: ${this.message}` : this.message;
+    return this.file ? `${this.file}: ${this.detail()}` : this.detail();
   }
 }
 
@@ -29,6 +36,11 @@ export class ArchiveError extends InputError {
 /** The Android binary XML (chunked "AXML") cannot be decoded. */
 export class BinaryXmlError extends InputError {
   override name = "BinaryXmlError";
+}
+
+/** A protobuf XML manifest or resource table (app bundles, `aapt2 --proto-format`) cannot be decoded. */
+export class ProtoXmlError extends InputError {
+  override name = "ProtoXmlError";
 }
 
 /** The resource table (resources.arsc) cannot be decoded. */
@@ -75,8 +87,22 @@ export class LimitError extends InputError {
   }
 }
 
+/**
+ * The command line is wrong in a way the option parser cannot see (a bad combination, an unknown check
+ * id, a category the baseline does not have). Not an InputError: no file is at fault.
+ */
+export class UsageError extends Error {
+  override name = "UsageError";
+}
+
 /** Attach a file name to an InputError that was raised without one (decoders do not know paths). */
 export function withFile<E>(error: E, file: string): E {
   if (error instanceof InputError && error.file === undefined) error.file = file;
+  return error;
+}
+
+/** Attach an archive entry name to an InputError raised while reading that entry (innermost entry wins). */
+export function withEntry<E>(error: E, entry: string): E {
+  if (error instanceof InputError) error.entry = error.entry === undefined ? entry : `${entry}: ${error.entry}`;
   return error;
 }

@@ -1,11 +1,9 @@
 /**
  * The baseline file: JSON with a schema version, holding counts (so that baselines merge exactly),
  * the parameters that turn counts into rates, provenance, and the risk model with its evaluation.
- * Written atomically: a temporary file in the same folder, then a rename.
+ * Parsing and serializing only: the ops layer reads and writes the file (atomically).
  */
-import { closeSync, fsyncSync, openSync, readFileSync, renameSync, unlinkSync, writeSync } from "node:fs";
-import { basename, dirname, join } from "node:path";
-import { BaselineError, OutputError } from "../errors.js";
+import { BaselineError } from "../errors.js";
 import { PLATFORM_TABLE_VERSION } from "../platform/permissions.js";
 import { TOOL_VERSION } from "../version.js";
 import { CountTable, type SerializedCounts } from "./counts.js";
@@ -71,15 +69,8 @@ export function newBaselineFile(parts: Omit<BaselineFile, "format" | "schemaVers
   };
 }
 
-/** Reads and checks a baseline file. */
-export function readBaselineFile(path: string): BaselineFile {
-  let text: string;
-  try {
-    text = readFileSync(path, "utf8");
-  } catch (e) {
-    const code = (e as { code?: string }).code;
-    throw new BaselineError(code === "ENOENT" ? "no such file" : `cannot be read (${(e as Error).message})`, { file: path });
-  }
+/** Parses and checks the text of a baseline file; `path` names it in errors. */
+export function parseBaselineFile(text: string, path: string): BaselineFile {
   let json: Partial<BaselineFile>;
   try {
     json = JSON.parse(text);
@@ -103,26 +94,6 @@ export function baselineOf(file: BaselineFile): Baseline {
 /** Serializes a baseline file the same way every time (stable key order from the writers). */
 export function serializeBaseline(file: BaselineFile): string {
   return `${JSON.stringify(file, null, 1)}\n`;
-}
-
-/** Writes `text` to `path` atomically: a temporary file beside it, flushed, then renamed over it. */
-export function writeFileAtomic(path: string, text: string): void {
-  const tmp = join(dirname(path), `.${basename(path)}.${process.pid}.${Date.now().toString(36)}.tmp`);
-  let fd: number | undefined;
-  try {
-    fd = openSync(tmp, "wx", 0o644);
-    writeSync(fd, text);
-    fsyncSync(fd);
-    closeSync(fd);
-    fd = undefined;
-    renameSync(tmp, path);
-  } catch (e) {
-    if (fd !== undefined) closeSync(fd);
-    try { unlinkSync(tmp); } catch { /* never created */ }
-    const code = (e as { code?: string }).code;
-    const why = code === "ENOSPC" ? "the disk is full" : code === "EACCES" || code === "EPERM" || code === "EROFS" ? "the folder is not writable" : code === "ENOENT" ? "the folder does not exist" : (e as Error).message;
-    throw new OutputError(`cannot be written: ${why}`, { file: path });
-  }
 }
 
 /**

@@ -5,7 +5,7 @@
  * argued for by Peng et al., "Using probabilistic generative models for ranking risks of Android apps",
  * CCS 2012).
  */
-import { platformPermission } from "../platform/permissions.js";
+import { isSensitive } from "../platform/sensitivity.js";
 import type { Baseline, Exclusion } from "./rates.js";
 
 /**
@@ -32,16 +32,6 @@ export const FEATURE_DESCRIPTIONS: Record<FeatureName, string> = {
   surprisal: "summed surprisal, −ln(rate), of the requested permissions",
 };
 
-/** Dangerous, app-op, or hard/soft-restricted on the platform (API 34 table). */
-export function isSensitive(permission: string): boolean {
-  const p = platformPermission(permission);
-  if (!p) return false;
-  return p.base === "dangerous" || p.flags.includes("appop") || p.hardRestricted || p.softRestricted;
-}
-
-export function isDangerous(permission: string): boolean {
-  return platformPermission(permission)?.base === "dangerous";
-}
 
 /** Per-permission terms, so that explanations and what-if figures use the same numbers as the score. */
 export interface PermissionTerms {

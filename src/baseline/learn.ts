@@ -6,16 +6,17 @@ import { CorpusError } from "../errors.js";
 import { seededRandom } from "../util/random.js";
 import { newBaselineFile, type BaselineFile, type InputProvenance, type StoredModel } from "./baseline-file.js";
 import { CountTable } from "./counts.js";
-import { openCorpus, type CorpusOptions, type CorpusRecord, type CorpusReport } from "./corpus/index.js";
-import { appFeatures, FEATURE_NAMES, isDangerous } from "./features.js";
+import { openCorpus, type CorpusOptions, type CorpusRecord, type CorpusReport, type CorpusSource } from "./corpus/index.js";
+import { isDangerous } from "../platform/sensitivity.js";
+import { appFeatures, FEATURE_NAMES } from "./features.js";
 import { trainRiskModel, type TrainingRow } from "./model.js";
 import { Baseline, DEFAULT_RATE_PARAMETERS, type RateParameters } from "./rates.js";
 
 export interface LearnOptions {
   /** Corpora for category frequencies (rows need a category). */
-  frequencies: { path: string; options: CorpusOptions; licence?: string }[];
+  frequencies: { source: CorpusSource; options: CorpusOptions; licence?: string }[];
   /** A separate labeled corpus for the risk model; without it, labels in the frequency corpora are used. */
-  labels?: { path: string; options: CorpusOptions; licence?: string };
+  labels?: { source: CorpusSource; options: CorpusOptions; licence?: string };
   /** How risk statements name the labeled corpus (default: its path). */
   labelsName?: string;
   parameters?: Partial<RateParameters>;
@@ -65,8 +66,9 @@ class LabeledSample {
   }
 }
 
-async function drain(path: string, options: CorpusOptions, each: (r: CorpusRecord) => void, hooks: Pick<LearnOptions, "onProgress" | "onReject">, rejectLimit: number): Promise<CorpusReport> {
-  const corpus = openCorpus(path, {
+async function drain(source: CorpusSource, options: CorpusOptions, each: (r: CorpusRecord) => void, hooks: Pick<LearnOptions, "onProgress" | "onReject">, rejectLimit: number): Promise<CorpusReport> {
+  const path = source.name;
+  const corpus = openCorpus(source, {
     ...options,
     onProgress: hooks.onProgress ? (d, t) => hooks.onProgress!(path, d, t) : undefined,
     onReject: hooks.onReject ? (r) => hooks.onReject!(path, r.line, r.reason) : undefined,
@@ -100,7 +102,7 @@ export async function learn(options: LearnOptions): Promise<LearnResult> {
 
   for (const f of options.frequencies) {
     const rep = await drain(
-      f.path,
+      f.source,
       { ...f.options, aliases, requireCategory: true },
       (r) => {
         counts.add(r);
@@ -118,7 +120,7 @@ export async function learn(options: LearnOptions): Promise<LearnResult> {
   let labelLicence: string | undefined;
   if (options.labels) {
     const l = options.labels;
-    labelReport = await drain(l.path, { ...l.options, aliases, requireCategory: false }, (r) => {
+    labelReport = await drain(l.source, { ...l.options, aliases, requireCategory: false }, (r) => {
       if (r.label !== undefined) sample.offer(r, false);
     }, options, rejectLimit);
     reports.push(labelReport);
@@ -126,7 +128,7 @@ export async function learn(options: LearnOptions): Promise<LearnResult> {
     labelLicence = l.licence;
   } else {
     labelReport = reports.find((r) => r.labeled > 0);
-    labelLicence = options.frequencies.find((f) => f.path === labelReport?.source)?.licence;
+    labelLicence = options.frequencies.find((f) => f.source.name === labelReport?.source)?.licence;
   }
 
   const baseline = new Baseline(counts, parameters);

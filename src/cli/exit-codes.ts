@@ -1,15 +1,28 @@
-/** Exit codes of the `overask` command (documented in README.md). */
-export const EXIT = {
-  /** Everything read and reported. */
-  OK: 0,
-  /** A gate was hit (a finding at or above --fail-on, or a risk above --max-risk). */
-  GATE: 1,
-  /** The command line is wrong (unknown option, missing argument). */
-  USAGE: 2,
-  /** At least one input could not be read; the others were still reported. */
-  INPUT: 3,
-  /** A bug in overask; rerun with --debug and report the stack trace. */
-  INTERNAL: 4,
-  /** An output could not be written; anything already written is left as it was. */
-  OUTPUT: 5,
-} as const;
+/**
+ * Exit codes of the `overask` command: the one table that the code, `--help` and README.md (checked by
+ * test/readme.test.ts) take them from.
+ */
+export const EXIT_CODES = [
+  { name: "OK", code: 0, help: "done", meaning: "every input was read and reported" },
+  { name: "GATE", code: 1, help: "a --fail-on or --max-risk gate was hit (check)", meaning: "`check` found something at or above `--fail-on`, or a risk above `--max-risk`" },
+  { name: "USAGE", code: 2, help: "wrong command line", meaning: "the command line is wrong (unknown option or command, missing argument)" },
+  {
+    name: "INPUT",
+    code: 3,
+    help: "an input could not be read (the others were still reported)",
+    meaning:
+      "at least one input could not be read (a file, a corpus over its reject limit, a baseline of another schema version; for `sweep`, an app in the inventory); the others were still reported, and the error was printed as one line naming the file",
+  },
+  { name: "INTERNAL", code: 4, help: "internal error (rerun with --debug)", meaning: "an internal error in overask; rerun with `--debug` for the stack trace and report it" },
+  { name: "OUTPUT", code: 5, help: "an output could not be written", meaning: "an output could not be written (missing or read-only folder, full disk); an existing file is left as it was" },
+] as const;
+
+type ExitName = (typeof EXIT_CODES)[number]["name"];
+
+/** Exit codes by name: `EXIT.GATE` is 1. */
+export const EXIT = Object.fromEntries(EXIT_CODES.map((e) => [e.name, e.code])) as { readonly [K in ExitName]: Extract<(typeof EXIT_CODES)[number], { name: K }>["code"] };
+
+/** The "Exit codes:" section of `--help`. */
+export function exitCodesHelp(): string {
+  return ["", "Exit codes:", ...EXIT_CODES.map((e) => `  ${e.code}  ${e.help}`)].join("\n");
+}

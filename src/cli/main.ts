@@ -1,24 +1,19 @@
 /**
- * The `overask` command: commander wiring only. Each command parses its options, calls the library,
- * picks a formatter and sets the exit code.
+ * The `overask` command: commander wiring only. Each command parses its options (typed parsers in
+ * options.ts), calls an operation from src/ops, picks a formatter and sets the exit code. Command modules
+ * load when their command runs, so that `--help` and `--version` start fast.
  */
 import { Command, CommanderError, Option } from "commander";
 import { InputError } from "../errors.js";
-import type { FactsResult } from "../report/facts.js";
-import { pickStyle } from "../report/style.js";
 import { TOOL_VERSION } from "../version.js";
-import { EXIT } from "./exit-codes.js";
+import { EXIT, exitCodesHelp } from "./exit-codes.js";
+import { processIo, type Io } from "./io.js";
+import { anInteger, closedUnit, collect, collectLevels, collectPairs, nonNegative, openUnit, shardParser, wholeNumber } from "./options.js";
 
-export interface Io {
-  stdout: { write(s: string): unknown; isTTY?: boolean };
-  stderr: { write(s: string): unknown; isTTY?: boolean };
-  env: NodeJS.ProcessEnv;
-}
-
-const defaultIo: Io = { stdout: process.stdout, stderr: process.stderr, env: process.env };
+export type { Io } from "./io.js";
 
 /** Runs the CLI with `argv` (without the node and script entries) and returns the exit code. */
-export async function run(argv: string[], io: Io = defaultIo): Promise<number> {
+export async function run(argv: string[], io: Io = processIo): Promise<number> {
   let exitCode: number = EXIT.OK;
   const debug = argv.includes("--debug");
   const program = new Command()
@@ -28,44 +23,17 @@ export async function run(argv: string[], io: Io = defaultIo): Promise<number> {
     .option("--debug", "print stack traces for errors")
     .showHelpAfterError("(run overask --help for usage)")
     .configureOutput({ writeOut: (s) => io.stdout.write(s), writeErr: (s) => io.stderr.write(s) })
-    .addHelpText(
-      "after",
-      [
-        "",
-        "Exit codes:",
-        "  0  done",
-        "  1  a --fail-on or --max-risk gate was hit (check)",
-        "  2  wrong command line",
-        "  3  an input could not be read (the others were still reported)",
-        "  4  internal error (rerun with --debug)",
-        "  5  an output could not be written",
-      ].join("\n"),
-    )
+    .addHelpText("after", exitCodesHelp())
     .exitOverride();
 
-  const collect = (v: string, prev: string[] = []) => [...prev, v];
   program
     .command("facts")
     .description("read APKs, app bundles or manifests and print what they declare")
     .argument("<file...>", "APKs, app bundles (.aab), multi-APK archives, binary, protobuf or plain AndroidManifest.xml files")
     .addOption(new Option("-f, --format <format>", "output format").choices(["text", "json"]).default("text"))
     .action(async (files: string[], opts: { format: "text" | "json" }) => {
-      // Commands load their modules when run, so `--help` and `--version` start fast.
-      const { readManifestFile } = await import("../extract/index.js");
-      const { factsToJson, factsToText } = await import("../report/facts.js");
-      const results: FactsResult[] = [];
-      for (const file of files) {
-        try {
-          results.push({ file, manifest: readManifestFile(file) });
-        } catch (e) {
-          if (!(e instanceof InputError)) throw e;
-          results.push({ file, error: { kind: e.name, message: e.message } });
-          io.stderr.write(`overask: ${e.describe()}\n`);
-          if (debug && e.stack) io.stderr.write(`${e.stack}\n`);
-          exitCode = EXIT.INPUT;
-        }
-      }
-      io.stdout.write(opts.format === "json" ? factsToJson(results) : factsToText(results.filter((r) => r.manifest), pickStyle(io.stdout, io.env)));
+      const { factsCommand } = await import("./facts-command.js");
+      exitCode = factsCommand(files, opts, io, debug);
     });
 
   program
@@ -74,7 +42,7 @@ export async function run(argv: string[], io: Io = defaultIo): Promise<number> {
     .argument("<corpus...>", "corpora for category frequencies: JSONL, wide 0/1 CSV, or an index CSV of APKs/manifests (file,category[,label])")
     .requiredOption("-o, --output <file>", "baseline file to write")
     .addOption(new Option("--format <format>", "corpus format (default: told from the content)").choices(["jsonl", "wide-csv", "files"]))
-    .option("--id-field <name>", "field or column with the app id", undefined)
+    .option("--id-field <name>", "field or column with the app id")
     .option("--category-field <name>", "field or column with the category")
     .option("--permissions-field <name>", "JSONL field with the list of permissions")
     .option("--label-field <name>", "field (JSONL) or column (CSV) with the label")
@@ -86,18 +54,18 @@ export async function run(argv: string[], io: Io = defaultIo): Promise<number> {
     .option("--labels <file>", "separate labeled corpus for the risk model (same field options)")
     .option("--labels-licence <text>", "licence of the labeled corpus")
     .option("--labels-name <text>", "how risk statements name the labeled corpus (default: its path)")
-    .option("--alias <from=to>", "category alias, e.g. Educational=Education (repeatable)", collect)
+    .option("--alias <from=to>", "category alias, e.g. Educational=Education (repeatable)", collectPairs)
     .addOption(new Option("--prior <method>", "shrinkage toward the pooled rate").choices(["fixed", "empirical-bayes"]).default("fixed"))
-    .option("--prior-strength <n>", "fixed: pooled pseudo-apps per category; empirical-bayes: the cap", "10")
-    .option("--confidence <level>", "confidence level of the Wilson intervals", "0.95")
-    .option("--min-support <n>", "categories with fewer apps use the pooled baseline", "30")
-    .option("--uncommon-below <rate>", "uncommon: the interval's upper end is below this rate", "0.05")
-    .option("--seed <n>", "seed for sampling and cross-validation folds", "1")
-    .option("--folds <k>", "cross-validation folds", "5")
-    .option("--max-train-rows <n>", "train on a seeded stratified sample above this many labeled rows", "5000")
-    .option("--reject-limit <share>", "fail when a corpus rejects more than this share of its rows", "0.05")
+    .option("--prior-strength <n>", "fixed: pooled pseudo-apps per category; empirical-bayes: the cap", nonNegative, 10)
+    .option("--confidence <level>", "confidence level of the Wilson intervals", openUnit, 0.95)
+    .option("--min-support <n>", "categories with fewer apps use the pooled baseline", wholeNumber(0), 30)
+    .option("--uncommon-below <rate>", "uncommon: the interval's upper end is below this rate", openUnit, 0.05)
+    .option("--seed <n>", "seed for sampling and cross-validation folds", anInteger, 1)
+    .option("--folds <k>", "cross-validation folds", wholeNumber(2), 5)
+    .option("--max-train-rows <n>", "train on a seeded stratified sample above this many labeled rows", wholeNumber(10), 5000)
+    .option("--reject-limit <share>", "fail when a corpus rejects more than this share of its rows", closedUnit, 0.05)
     .option("--rejects <file>", "write every rejected row (file, line, reason) to this file")
-    .action(async (corpora: string[], o: Record<string, string | string[] | undefined>) => {
+    .action(async (corpora: string[], o: import("./learn-command.js").LearnCliOptions) => {
       const { learnCommand } = await import("./learn-command.js");
       exitCode = await learnCommand(corpora, o, io);
     });
@@ -114,15 +82,15 @@ export async function run(argv: string[], io: Io = defaultIo): Promise<number> {
     .description("judge apps against their category's baseline: uncommon permissions, other checks, and the risk estimate")
     .argument("[file...]", "APKs, binary or plain manifests")
     .addOption(new Option("--fail-on <level>", "exit 1 when a finding is at or above this level").choices(["error", "warning", "note"]))
-    .option("--max-risk <p>", "exit 1 when an app's risk is above this probability")
-    .option("--level <check=level>", "override a check's level: error, warning, note or off (repeatable)", collect)
+    .option("--max-risk <p>", "exit 1 when an app's risk is above this probability", closedUnit)
+    .option("--level <check=level>", "override a check's level: error, warning, note or off (repeatable)", collectLevels)
     .option("--records <corpus>", "score pre-extracted records (JSONL, wide CSV) instead of files: one JSON line per record")
     .option("--id-field <name>", "with --records: field or column with the app id")
     .option("--category-field <name>", "with --records: field or column with the category")
     .option("--permissions-field <name>", "with --records: JSONL field with the permissions")
     .option("--columns-from <file>", "with --records: wide CSV permission columns")
     .option("--columns-kind <kind>", "with --records: keep columns of this kind")
-    .action(async (files: string[], o: Record<string, string | string[] | boolean | undefined>) => {
+    .action(async (files: string[], o: import("./check-command.js").CheckCliOptions) => {
       const { checkCommand } = await import("./check-command.js");
       exitCode = await checkCommand(files, o, io);
     });
@@ -134,14 +102,14 @@ export async function run(argv: string[], io: Io = defaultIo): Promise<number> {
     .requiredOption("-o, --output <file>", "results file (one row per input)")
     .addOption(new Option("-f, --format <format>", "results format").choices(["jsonl", "csv"]).default("jsonl"))
     .option("--html <file>", "also write a self-contained HTML report")
-    .option("-j, --jobs <n>", "worker threads (default: the number of cores)")
+    .option("-j, --jobs <n>", "worker threads (default: the number of cores)", wholeNumber(1))
     .option("--resume", "continue an interrupted run: skip inputs already in the results with the same size and time")
-    .option("--shard <i/n>", "process the i-th of n stable parts of the inputs (for several machines)")
+    .option("--shard <i/n>", "process the i-th of n stable parts of the inputs (for several machines)", shardParser)
     .option("-c, --category <name>", "category for every input (otherwise the index CSV's, then android:appCategory)")
     .option("--categories <file>", "CSV mapping package names to categories (package,category)")
     .option("-b, --baseline <file>", "baseline file (default: the bundled baselines/default.json)")
-    .option("--level <check=level>", "override a check's level (repeatable)", collect)
-    .action(async (source: string, o: Record<string, string | string[] | boolean | undefined>) => {
+    .option("--level <check=level>", "override a check's level (repeatable)", collectLevels)
+    .action(async (source: string, o: import("./sweep-command.js").SweepCliOptions) => {
       const { sweepCommand } = await import("./sweep-command.js");
       exitCode = await sweepCommand(source, o, io);
     });
@@ -154,9 +122,9 @@ export async function run(argv: string[], io: Io = defaultIo): Promise<number> {
     .option("--keep <permission>", "leave this permission alone (repeatable)", collect)
     .option("--write <file>", "write a patched copy of the source manifest")
     .option("--in-place", "patch the source manifest itself")
-    .option("--level <check=level>", "override a check's level (repeatable)", collect)
-    .action(async (file: string, o: Record<string, string | string[] | boolean | undefined>) => {
-      const { trimCommand } = await import("./trim-delta-command.js");
+    .option("--level <check=level>", "override a check's level (repeatable)", collectLevels)
+    .action(async (file: string, o: import("./trim-command.js").TrimCliOptions) => {
+      const { trimCommand } = await import("./trim-command.js");
       exitCode = await trimCommand(file, o, io);
     });
 
@@ -164,8 +132,8 @@ export async function run(argv: string[], io: Io = defaultIo): Promise<number> {
     .description("for reviewers of an update: what changed between two versions of an app")
     .argument("<old>", "the earlier APK or manifest")
     .argument("<new>", "the later APK or manifest")
-    .action(async (before: string, after: string, o: Record<string, string | string[] | boolean | undefined>) => {
-      const { deltaCommand } = await import("./trim-delta-command.js");
+    .action(async (before: string, after: string, o: import("./delta-command.js").DeltaCliOptions) => {
+      const { deltaCommand } = await import("./delta-command.js");
       exitCode = await deltaCommand(before, after, o, io);
     });
 
@@ -176,7 +144,7 @@ export async function run(argv: string[], io: Io = defaultIo): Promise<number> {
     .requiredOption("-o, --output <file>", "baseline file to write")
     .action(async (files: string[], o: { output: string }) => {
       const { foldCommand } = await import("./learn-command.js");
-      exitCode = await foldCommand(files, o.output, io);
+      exitCode = foldCommand(files, o.output, io);
     });
 
   try {

@@ -1,11 +1,9 @@
 /**
  * The platform's own permission definitions (Android 14 / API 34, from the framework manifest; see
  * src/platform/data/SOURCES.md): protection level, flags and restrictions for each platform permission.
- * Loaded once, on first use.
+ * The table is compiled into the code at build time (scripts/gen.mjs), so nothing is read from disk.
  */
-import { readFileSync } from "node:fs";
-import { join } from "node:path";
-import { packageRoot } from "../ops/package-root.js";
+import { PERMISSION_TABLE_HEADER, PERMISSION_TABLE_ROWS } from "./generated/permission-table.js";
 import { protectionFromText, type BaseLevel } from "./protection.js";
 
 export const PLATFORM_TABLE_VERSION = "android-34 (framework core/res/AndroidManifest.xml; see src/platform/data/SOURCES.md)";
@@ -30,7 +28,11 @@ let table: Map<string, PlatformPermission> | undefined;
 /** Parses the platform permission TSV (header row, tab-separated). */
 export function parsePlatformTable(tsv: string): Map<string, PlatformPermission> {
   const lines = tsv.split(/\r?\n/).filter((l) => l !== "");
-  const header = lines[0].split("\t");
+  return tableFromRows(lines[0].split("\t"), lines.slice(1).map((l) => l.split("\t")));
+}
+
+/** Builds the table from a header and rows of fields (the generated module's shape). */
+function tableFromRows(header: readonly string[], rows: readonly (readonly string[])[]): Map<string, PlatformPermission> {
   const col = (name: string) => {
     const i = header.indexOf(name);
     if (i < 0) throw new Error(`platform table lacks column ${name}`);
@@ -46,8 +48,7 @@ export function parsePlatformTable(tsv: string): Map<string, PlatformPermission>
     note: col("doc_note"),
   };
   const out = new Map<string, PlatformPermission>();
-  for (const line of lines.slice(1)) {
-    const f = line.split("\t");
+  for (const f of rows) {
     const level = protectionFromText(f[c.level]);
     const p: PlatformPermission = {
       name: f[c.name],
@@ -67,7 +68,7 @@ export function parsePlatformTable(tsv: string): Map<string, PlatformPermission>
 
 /** All platform permissions by full name. */
 export function platformPermissions(): ReadonlyMap<string, PlatformPermission> {
-  table ??= parsePlatformTable(readFileSync(join(packageRoot(), "src/platform/data/android-platform-permissions.tsv"), "utf8"));
+  table ??= tableFromRows(PERMISSION_TABLE_HEADER, PERMISSION_TABLE_ROWS);
   return table;
 }
 

@@ -3,7 +3,6 @@
  * categories (`--categories map.csv`); the manifest's `android:appCategory` mapped to a baseline category;
  * otherwise the pooled baseline, and the output says so.
  */
-import { readFileSync } from "node:fs";
 import type { Baseline, Fallback } from "../baseline/rates.js";
 import { CorpusError } from "../errors.js";
 import type { Manifest } from "../extract/manifest/model.js";
@@ -36,14 +35,8 @@ export const APP_CATEGORY_MATCHES: Record<string, string[]> = {
   accessibility: ["accessibility", "tools"],
 };
 
-/** Reads a `package,category` CSV (header optional). */
-export function readCategoryIndex(path: string): Map<string, string> {
-  let text: string;
-  try {
-    text = readFileSync(path, "utf8");
-  } catch (e) {
-    throw new CorpusError((e as { code?: string }).code === "ENOENT" ? "no such file" : (e as Error).message, { file: path });
-  }
+/** Parses the text of a `package,category` CSV (header optional); `path` names it in errors. */
+export function parseCategoryIndex(text: string, path: string): Map<string, string> {
   const map = new Map<string, string>();
   text.split(/\r?\n/).forEach((line, i) => {
     if (!line.trim()) return;
@@ -70,13 +63,29 @@ export function chooseCategory(m: Manifest, baseline: Baseline, options: { categ
     requested = wanted.map((w) => names.find((n) => n.toLowerCase() === w)).find((n) => n !== undefined) ?? m.appCategory;
     source = "appCategory";
   }
-  const name = requested !== undefined ? (baseline.aliases.get(requested) ?? matchCase(requested, baseline)) : undefined;
-  const resolved = baseline.resolveCategory(name);
+  const resolved = resolveCategory(baseline, requested);
   const choice: CategoryChoice = { source };
   if (requested !== undefined) choice.requested = requested;
   if (resolved.category !== undefined) choice.category = resolved.category;
   if (resolved.fallback) choice.fallback = resolved.fallback;
   return choice;
+}
+
+/**
+ * The one way a category name someone gave (an option, an index row, a record's field) becomes a baseline
+ * category: the baseline's aliases first, then its category names without regard to case (`tools` finds
+ * `TOOLS`), then the baseline's own fallback (too few apps, or unknown: the pooled baseline).
+ */
+export function resolveCategory(baseline: Baseline, requested: string | undefined): { category?: string; fallback?: Fallback } {
+  if (requested === undefined) return baseline.resolveCategory(undefined);
+  const aliased = baseline.aliases.get(requested) ?? aliasIgnoringCase(baseline, requested);
+  return baseline.resolveCategory(aliased ?? matchCase(requested, baseline));
+}
+
+function aliasIgnoringCase(baseline: Baseline, name: string): string | undefined {
+  const lower = name.toLowerCase();
+  for (const [from, to] of baseline.aliases) if (from.toLowerCase() === lower) return to;
+  return undefined;
 }
 
 /** Baseline categories are matched without regard to case (`tools` finds `TOOLS`). */

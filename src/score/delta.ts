@@ -3,6 +3,7 @@
  */
 import { requestedPermissionNames } from "../extract/manifest/model.js";
 import type { CheckResult } from "./judge.js";
+import { checkIdsTagged } from "./registry.js";
 import type { Finding } from "./types.js";
 
 export interface AppVersion {
@@ -39,14 +40,15 @@ function version(r: CheckResult): AppVersion {
   };
 }
 
-const RATE_CHECKS = new Set(["uncommon-for-category", "sensitive-uncommon"]);
+const RATE_CHECKS = checkIdsTagged("rate");
+const SPECIAL_ACCESS_CHECKS = checkIdsTagged("special-access");
 
 export function compareVersions(before: CheckResult, after: CheckResult): Delta {
   const old = new Set(requestedPermissionNames(before.manifest));
   const now = new Set(requestedPermissionNames(after.manifest));
   const facts = new Map(after.manifest.usesPermissions.map((p) => [p.name, p.facts]));
   const oldRate = new Set(before.findings.filter((f) => RATE_CHECKS.has(f.checkId)).map((f) => f.subject));
-  const special = (r: CheckResult) => r.findings.filter((f) => f.checkId === "special-access-component");
+  const special = (r: CheckResult) => r.findings.filter((f) => SPECIAL_ACCESS_CHECKS.has(f.checkId));
   const key = (f: Finding) => `${f.subject}\u0000${f.data.permission}`;
   const oldSpecial = new Set(special(before).map(key));
   const newSpecial = new Set(special(after).map(key));

@@ -6,8 +6,6 @@
  * `ADDED from /path/src/main/AndroidManifest.xml:7:5-67` (the app's own manifest, no brackets), and
  * `MERGED from …` lines for further contributors.
  */
-import { readFileSync } from "node:fs";
-import { InputError } from "../errors.js";
 
 export interface PermissionOrigin {
   /** Library coordinates (`group:artifact:version`) that added or merged the permission. */
@@ -39,12 +37,4 @@ export function parseMergeReport(text: string): Map<string, PermissionOrigin> {
     } else current.app = true;
   }
   return out;
-}
-
-export function readMergeReport(path: string): Map<string, PermissionOrigin> {
-  try {
-    return parseMergeReport(readFileSync(path, "utf8"));
-  } catch (e) {
-    throw new InputError((e as { code?: string }).code === "ENOENT" ? "no such file" : (e as Error).message, { file: path });
-  }
 }

@@ -4,7 +4,8 @@
  */
 import type { CorpusRecord } from "../baseline/corpus/types.js";
 import type { Judge } from "./judge.js";
-import { isSensitive } from "../baseline/features.js";
+import { isSensitive } from "../platform/sensitivity.js";
+import { resolveCategory } from "./category.js";
 import { bandOf, type Band } from "./risk.js";
 
 export interface RecordScore {
@@ -20,8 +21,7 @@ export interface RecordScore {
 }
 
 export function scoreRecord(judge: Judge, r: CorpusRecord, category?: string): RecordScore {
-  const requested = category ?? r.category;
-  const resolved = judge.baseline.resolveCategory(requested !== undefined ? (judge.baseline.aliases.get(requested) ?? requested) : undefined);
+  const resolved = resolveCategory(judge.baseline, category ?? r.category);
   const uncommon: string[] = [];
   let sensitiveUncommon = 0;
   for (const p of r.permissions) {

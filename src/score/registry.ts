@@ -7,7 +7,7 @@ import { uncommonForCategory } from "./checks/uncommon-for-category.js";
 import { ungrantablePermission } from "./checks/ungrantable-permission.js";
 import { unknownPermission } from "./checks/unknown-permission.js";
 import { weakCustomPermission } from "./checks/weak-custom-permission.js";
-import type { Check } from "./types.js";
+import type { Check, CheckTag } from "./types.js";
 
 export const CHECKS: readonly Check[] = [
   exportedUnguarded,
@@ -22,4 +22,9 @@ export const CHECKS: readonly Check[] = [
 
 export function checkById(id: string): Check | undefined {
   return CHECKS.find((c) => c.meta.id === id);
+}
+
+/** The ids of the checks carrying `tag`. */
+export function checkIdsTagged(tag: CheckTag): ReadonlySet<string> {
+  return new Set(CHECKS.filter((c) => c.meta.tags.includes(tag)).map((c) => c.meta.id));
 }

@@ -22,7 +22,18 @@ export interface CheckMeta {
   /** Path of the check's documentation page, from the project root. */
   docs: string;
   defaultLevel: Level;
+  /** What other parts of overask do with its findings (see CHECK_TAGS). */
+  tags: readonly CheckTag[];
 }
+
+/**
+ * Roles a check's findings play beyond being reported:
+ * - `rate`: judged against the category's rates (delta's "newly uncommon", the sweep heatmap);
+ * - `trim`: the permission concerned is a candidate for removal or limiting (`trim`);
+ * - `special-access`: a component claims special access (delta's appeared/disappeared list).
+ */
+export const CHECK_TAGS = ["rate", "trim", "special-access"] as const;
+export type CheckTag = (typeof CHECK_TAGS)[number];
 
 export interface CheckContext {
   manifest: Manifest;

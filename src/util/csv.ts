@@ -22,3 +22,10 @@ export function splitCsvLine(line: string): string[] | undefined {
   out.push(field);
   return out;
 }
+
+/** One CSV field, quoted (RFC 4180) when it holds a comma, quote or line break; empty when undefined. */
+export function csvCell(v: string | number | undefined): string {
+  if (v === undefined) return "";
+  const s = String(v);
+  return /[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+}

@@ -6,7 +6,7 @@ import { existsSync, mkdtempSync, readFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
-import { readBaselineFile } from "../../src/baseline/baseline-file.js";
+import { readBaselineFile } from "../../src/ops/baseline.js";
 import { run } from "../../src/cli/main.js";
 import { ROOT } from "../helpers/paths.js";
 import { documentedCommands } from "../helpers/shell-words.js";

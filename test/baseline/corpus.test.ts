@@ -2,7 +2,8 @@ import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
-import { openCorpus, detectCorpusFormat, type CorpusOptions, type CorpusRecord } from "../../src/baseline/corpus/index.js";
+import { detectCorpusFormat, type CorpusRecord } from "../../src/baseline/corpus/index.js";
+import { corpusFile, openCorpusFile as openCorpus, type CorpusFileOptions as CorpusOptions } from "../../src/ops/corpus.js";
 import { splitCsvLine } from "../../src/util/csv.js";
 import { ROOT } from "../helpers/paths.js";
 
@@ -108,7 +109,7 @@ describe("file corpora", () => {
       ].join("\n"),
       ".csv",
     );
-    expect(detectCorpusFormat(index)).toBe("files");
+    expect(detectCorpusFormat(corpusFile(index).head())).toBe("files");
     const { records, report } = await readAll(index);
     expect(records.map((r) => [r.id, r.category, r.label, r.permissions.length])).toEqual([
       ["org.example.pocketlamp", "Tools", 1, 14],

@@ -2,7 +2,9 @@ import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
-import { baselineOf, foldBaselines, readBaselineFile } from "../../src/baseline/baseline-file.js";
+import { baselineOf, foldBaselines } from "../../src/baseline/baseline-file.js";
+import { readBaselineFile } from "../../src/ops/baseline.js";
+import { corpusFile } from "../../src/ops/corpus.js";
 import { CountTable } from "../../src/baseline/counts.js";
 import { appFeatures, FEATURE_NAMES } from "../../src/baseline/features.js";
 import { learn } from "../../src/baseline/learn.js";
@@ -27,9 +29,9 @@ describe("fold", () => {
         writeFileSync(path, `${p.join("\n")}\n`);
         return path;
       });
-      const whole = await learn({ frequencies: [{ path: CORPUS, options: frequenciesOnly }] });
-      const a = await learn({ frequencies: [{ path: paths[0], options: frequenciesOnly }] });
-      const b = await learn({ frequencies: [{ path: paths[1], options: frequenciesOnly }] });
+      const whole = await learn({ frequencies: [{ source: corpusFile(CORPUS), options: frequenciesOnly }] });
+      const a = await learn({ frequencies: [{ source: corpusFile(paths[0]), options: frequenciesOnly }] });
+      const b = await learn({ frequencies: [{ source: corpusFile(paths[1]), options: frequenciesOnly }] });
       const folded = foldBaselines([{ path: paths[0], file: a.file }, { path: paths[1], file: b.file }]);
       expect(folded.counts).toEqual(whole.file.counts);
       expect(folded.model).toBeNull();
@@ -37,14 +39,14 @@ describe("fold", () => {
   }
 
   it("refuses baselines learned with different parameters", async () => {
-    const a = await learn({ frequencies: [{ path: CORPUS, options: frequenciesOnly }] });
-    const b = await learn({ frequencies: [{ path: CORPUS, options: frequenciesOnly }], parameters: { minSupport: 5 } });
+    const a = await learn({ frequencies: [{ source: corpusFile(CORPUS), options: frequenciesOnly }] });
+    const b = await learn({ frequencies: [{ source: corpusFile(CORPUS), options: frequenciesOnly }], parameters: { minSupport: 5 } });
     expect(() => foldBaselines([{ path: "a.json", file: a.file }, { path: "b.json", file: b.file }])).toThrow(/parameters differ/);
   });
 });
 
 describe("the risk model learned from the demo corpus", async () => {
-  const result = await learn({ frequencies: [{ path: CORPUS, options: { labelField: "flagged", positive: ["yes"] } }] });
+  const result = await learn({ frequencies: [{ source: corpusFile(CORPUS), options: { labelField: "flagged", positive: ["yes"] } }] });
   const model = result.file.model!;
   const baseline = baselineOf(result.file);
 
@@ -87,12 +89,12 @@ describe("the risk model learned from the demo corpus", async () => {
   });
 
   it("is deterministic for a seed", async () => {
-    const again = await learn({ frequencies: [{ path: CORPUS, options: { labelField: "flagged", positive: ["yes"] } }], createdAt: new Date(result.file.createdAt) });
+    const again = await learn({ frequencies: [{ source: corpusFile(CORPUS), options: { labelField: "flagged", positive: ["yes"] } }], createdAt: new Date(result.file.createdAt) });
     expect(again.file).toEqual(result.file);
   });
 
   it("trains on a seeded stratified sample above the row limit, and says so", async () => {
-    const sampled = await learn({ frequencies: [{ path: CORPUS, options: { labelField: "flagged", positive: ["yes"] } }], model: { maxRows: 600 } });
+    const sampled = await learn({ frequencies: [{ source: corpusFile(CORPUS), options: { labelField: "flagged", positive: ["yes"] } }], model: { maxRows: 600 } });
     expect(sampled.file.model!.sample).toEqual({ of: 1500, taken: 600, seed: 1 });
     const share = sampled.file.model!.training.positives / 600;
     expect(Math.abs(share - model.training.positives / 1500)).toBeLessThan(0.01);
@@ -104,8 +106,8 @@ describe("reject threshold", () => {
   it("fails with a clear message when too many rows are rejected", async () => {
     const p = join(dir, "bad.jsonl");
     writeFileSync(p, `${LINES.slice(0, 90).join("\n")}\n${Array.from({ length: 10 }, () => "{oops").join("\n")}\n`);
-    await expect(learn({ frequencies: [{ path: p, options: {} }] })).rejects.toThrow(/10 of 100 rows rejected \(10\.0%\), over the limit of 5\.0%; first at line 91/);
-    await expect(learn({ frequencies: [{ path: p, options: {} }], rejectLimit: 0.2 })).resolves.toBeDefined();
+    await expect(learn({ frequencies: [{ source: corpusFile(p), options: {} }] })).rejects.toThrow(/10 of 100 rows rejected \(10\.0%\), over the limit of 5\.0%; first at line 91/);
+    await expect(learn({ frequencies: [{ source: corpusFile(p), options: {} }], rejectLimit: 0.2 })).resolves.toBeDefined();
   });
 });
 

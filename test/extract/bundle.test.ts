@@ -6,9 +6,10 @@
 import { readFileSync } from "node:fs";
 import AdmZip from "adm-zip";
 import { describe, expect, it } from "vitest";
-import { BinaryXmlError, InputError } from "../../src/errors.js";
+import { InputError, ProtoXmlError } from "../../src/errors.js";
 import { decodeProtoXml } from "../../src/extract/proto/proto-xml.js";
-import { readManifestBytes, readManifestFile } from "../../src/extract/index.js";
+import { readManifestBytes } from "../../src/extract/index.js";
+import { readManifestFile } from "../../src/ops/read-manifest.js";
 import type { Manifest } from "../../src/extract/manifest/model.js";
 import { diffAgainstDump, parsePermissionsDump, readXmltree } from "../helpers/aapt-dump.js";
 import { DUMP_DIR, FIXTURES } from "../helpers/paths.js";
@@ -40,7 +41,7 @@ describe("protobuf manifests", () => {
   });
 
   it("refuse bytes that are not a protobuf manifest with a typed error", () => {
-    expect(() => decodeProtoXml(Uint8Array.from([0x0a, 0xff, 0xff, 0xff, 0xff, 0x0f]))).toThrow(BinaryXmlError);
+    expect(() => decodeProtoXml(Uint8Array.from([0x0a, 0xff, 0xff, 0xff, 0xff, 0x0f]))).toThrow(ProtoXmlError);
     expect(() => readManifestBytes(Uint8Array.from([0x0a, 0x05, 0x01]), "x.pb")).toThrow(/^not a protobuf XML manifest|protobuf/);
   });
 });

@@ -7,7 +7,7 @@ import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import AdmZip from "adm-zip";
 import { decodeBinaryXml } from "../../src/extract/binary/binary-xml.js";
-import { readManifestFile } from "../../src/extract/index.js";
+import { readManifestFile } from "../../src/ops/read-manifest.js";
 import type { Manifest } from "../../src/extract/manifest/model.js";
 import { diffAgainstDump, parsePermissionsDump, readXmltree } from "../helpers/aapt-dump.js";
 import { APK_DIR, APK_VARIANTS, DUMP_DIR, FIXTURES, appOf } from "../helpers/paths.js";

@@ -1,4 +1,4 @@
-import { readBaselineFile } from "../../src/baseline/baseline-file.js";
+import { readBaselineFile } from "../../src/ops/baseline.js";
 import { readManifestBytes } from "../../src/extract/index.js";
 import { Judge, type JudgeOptions } from "../../src/score/judge.js";
 import { ROOT } from "./paths.js";

@@ -1,13 +1,14 @@
 /**
  * Inputs the fuzzer (scripts/fuzz.mjs) once found breaking an invariant, minimized and kept in
- * fixtures/crashers/. Each must now end in a typed error (or be read) within the time limit.
+ * fixtures/crashers/. Each must now end in a typed error (or be read). How long each takes is checked by
+ * the fuzz harness's watchdog (scripts/fuzz.mjs replays them first), not here: no timed unit tests.
  */
 import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { ResourceTable } from "../../src/extract/binary/resource-table.js";
-import { openCorpus } from "../../src/baseline/corpus/index.js";
+import { openCorpusFile as openCorpus } from "../../src/ops/corpus.js";
 import { InputError } from "../../src/errors.js";
 import { readManifestBytes } from "../../src/extract/index.js";
 import { FIXTURES } from "../helpers/paths.js";
@@ -30,15 +31,15 @@ describe("fuzzer finds, replayed", () => {
     expect(index.length).toBeGreaterThan(0);
   });
   for (const c of index) {
-    it(`${c.name} (${c.problem}; ${c.found}) ends in a typed error within 2 s`, async () => {
+    it(`${c.name} (${c.problem}; ${c.found}) ends in a typed error or a result`, async () => {
       const bytes = readFileSync(`${FIXTURES}crashers/${c.name}.bin`);
-      const started = Date.now();
+      let error: unknown;
       try {
         await replay(c.kind, bytes);
       } catch (e) {
-        expect(e).toBeInstanceOf(InputError);
+        error = e;
       }
-      expect(Date.now() - started).toBeLessThan(2000);
+      if (error !== undefined) expect(error).toBeInstanceOf(InputError);
     });
   }
 });

@@ -1,43 +1,10 @@
 /**
- * What every corpus reader shares: line streaming with progress, the report, duplicate detection,
- * permission normalization and label parsing.
+ * What every corpus reader shares: the report, duplicate detection, permission normalization and label
+ * parsing.
  */
-import { createReadStream, statSync } from "node:fs";
-import { createInterface } from "node:readline";
 import { normalizePermissionName } from "../../platform/permissions.js";
+import { hash52 } from "../../util/hash.js";
 import { DUPLICATE_CHECK_ROWS, REPORTED_REJECTS, type CorpusFormat, type CorpusOptions, type CorpusRecord, type CorpusReport } from "./types.js";
-
-/** Streams the lines of a file with their 1-based numbers, reporting progress by bytes. */
-export async function* lines(path: string, onProgress?: (done: number, total: number) => void): AsyncGenerator<{ text: string; line: number }> {
-  const total = statSync(path).size;
-  const stream = createReadStream(path, { encoding: "utf8", highWaterMark: 1 << 20 });
-  const rl = createInterface({ input: stream, crlfDelay: Infinity });
-  let line = 0;
-  let done = 0;
-  let lastReport = 0;
-  for await (const text of rl) {
-    line++;
-    done += text.length + 1;
-    if (onProgress && done - lastReport > 1 << 20) {
-      lastReport = done;
-      onProgress(Math.min(done, total), total);
-    }
-    yield { text, line };
-  }
-  onProgress?.(total, total);
-}
-
-/** 52-bit FNV-1a hash of a string, as a safe integer (for compact duplicate detection). */
-function hash52(s: string): number {
-  let h1 = 0x811c9dc5;
-  let h2 = 0x050c5d1f;
-  for (let i = 0; i < s.length; i++) {
-    const c = s.charCodeAt(i);
-    h1 = Math.imul(h1 ^ c, 0x01000193);
-    h2 = Math.imul(h2 ^ c, 0x01000193) ^ (h1 >>> 7);
-  }
-  return (h1 >>> 0) * 0x100000 + ((h2 >>> 0) & 0xfffff);
-}
 
 /** Builds a corpus report and the bookkeeping every reader needs. */
 export class Ledger {

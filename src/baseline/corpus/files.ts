@@ -2,17 +2,14 @@
  * File corpora: an index CSV (`file,category[,label]`, header optional) naming APKs or manifests,
  * relative to the index's folder. Each app's permissions come from overask's own manifest reader.
  */
-import { dirname, resolve } from "node:path";
-import { InputError } from "../../errors.js";
-import { readManifestFile } from "../../extract/index.js";
-import { requestedPermissionNames } from "../../extract/manifest/model.js";
-import { Ledger, lines } from "./common.js";
+import { CorpusError, InputError } from "../../errors.js";
 import { splitCsvLine } from "../../util/csv.js";
-import type { CorpusOptions, CorpusRecord } from "./types.js";
+import type { Ledger } from "./common.js";
+import type { CorpusOptions, CorpusRecord, CorpusSource } from "./types.js";
 
-export async function* readFileIndex(path: string, options: CorpusOptions, ledger: Ledger): AsyncGenerator<CorpusRecord> {
-  const base = dirname(path);
-  for await (const { text, line } of lines(path, options.onProgress)) {
+export async function* readFileIndex(source: CorpusSource, options: CorpusOptions, ledger: Ledger): AsyncGenerator<CorpusRecord> {
+  if (!source.readApp) throw new CorpusError("is an index of app files, which this source cannot open", { file: source.name });
+  for await (const { text, line } of source.lines(options.onProgress)) {
     if (text.trim() === "") continue;
     const f = splitCsvLine(text);
     if (line === 1 && f?.[0]?.trim().toLowerCase() === "file") continue; // header
@@ -21,13 +18,10 @@ export async function* readFileIndex(path: string, options: CorpusOptions, ledge
       ledger.reject(line, "expected file,category[,label]");
       continue;
     }
-    const file = resolve(base, f[0].trim());
     let permissions: string[];
     let id: string;
     try {
-      const m = readManifestFile(file);
-      permissions = requestedPermissionNames(m);
-      id = m.package;
+      ({ id, permissions } = source.readApp(f[0].trim()));
     } catch (e) {
       if (!(e instanceof InputError)) throw e;
       ledger.reject(line, e.describe());

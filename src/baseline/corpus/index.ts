@@ -1,10 +1,8 @@
 /** Opening a corpus in any of its formats behind one interface. */
-import { closeSync, openSync, readSync } from "node:fs";
-import { CorpusError } from "../../errors.js";
 import { Ledger } from "./common.js";
 import { readFileIndex } from "./files.js";
 import { readJsonl } from "./jsonl.js";
-import type { CorpusFormat, CorpusOptions, CorpusRecord, CorpusReport } from "./types.js";
+import type { CorpusFormat, CorpusOptions, CorpusRecord, CorpusReport, CorpusSource } from "./types.js";
 import { readWideCsv } from "./wide-csv.js";
 
 export interface Corpus {
@@ -14,32 +12,23 @@ export interface Corpus {
 }
 
 /**
- * Tells a corpus format from the file: JSONL when the first non-blank character is `{`; an index CSV
- * when the first row starts with `file,` or names an .apk/.xml; a wide CSV otherwise.
+ * Tells a corpus format from its first text: JSONL when the first non-blank character is `{`; an index
+ * CSV when the first row starts with `file,` or names an .apk/.xml; a wide CSV otherwise.
  */
-export function detectCorpusFormat(path: string): CorpusFormat {
-  const fd = openSync(path, "r");
-  const head = Buffer.alloc(4096);
-  const n = readSync(fd, head, 0, head.length, 0);
-  closeSync(fd);
-  const text = head.toString("utf8", 0, n).replace(/^\uFEFF/, "").trimStart();
+export function detectCorpusFormat(head: string): CorpusFormat {
+  const text = head.replace(/^\uFEFF/, "").trimStart();
   if (text.startsWith("{")) return "jsonl";
   const first = text.split(/\r?\n/)[0].toLowerCase();
   if (first.startsWith("file,") || /^[^,]+\.(apk|xml)\s*,/.test(first)) return "files";
   return "wide-csv";
 }
 
-export function openCorpus(path: string, options: CorpusOptions = {}): Corpus {
-  let format: CorpusFormat;
-  try {
-    format = options.format ?? detectCorpusFormat(path);
-  } catch (e) {
-    const code = (e as { code?: string }).code;
-    throw new CorpusError(code === "ENOENT" ? "no such file" : code === "EISDIR" ? "is a directory; give the corpus file (JSONL, wide CSV or an index CSV)" : String((e as Error).message), { file: path });
-  }
-  const ledger = new Ledger(path, format, options);
+export function openCorpus(source: CorpusSource, options: CorpusOptions = {}): Corpus {
+  const format = options.format ?? detectCorpusFormat(source.head());
+  const ledger = new Ledger(source.name, format, options);
   const reader = format === "jsonl" ? readJsonl : format === "wide-csv" ? readWideCsv : readFileIndex;
-  return { records: reader(path, options, ledger), report: ledger.report };
+  return { records: reader(source, options, ledger), report: ledger.report };
 }
 
-export type { CorpusFormat, CorpusOptions, CorpusRecord, CorpusReport } from "./types.js";
+export { parseColumnList } from "./wide-csv.js";
+export type { CorpusFormat, CorpusOptions, CorpusRecord, CorpusReport, CorpusSource } from "./types.js";

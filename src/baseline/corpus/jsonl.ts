@@ -1,13 +1,13 @@
 /** JSONL corpora: one JSON object an app a line, with configurable field names. */
-import { Ledger, lines } from "./common.js";
-import type { CorpusOptions, CorpusRecord } from "./types.js";
+import type { Ledger } from "./common.js";
+import type { CorpusOptions, CorpusRecord, CorpusSource } from "./types.js";
 
-export async function* readJsonl(path: string, options: CorpusOptions, ledger: Ledger): AsyncGenerator<CorpusRecord> {
+export async function* readJsonl(source: CorpusSource, options: CorpusOptions, ledger: Ledger): AsyncGenerator<CorpusRecord> {
   const idField = options.idField ?? "id";
   const categoryField = options.categoryField ?? "category";
   const permissionsField = options.permissionsField ?? "permissions";
   const labelField = options.labelField ?? "label";
-  for await (const { text, line } of lines(path, options.onProgress)) {
+  for await (const { text, line } of source.lines(options.onProgress)) {
     if (text.trim() === "") continue;
     ledger.report.rows++;
     let row: unknown;

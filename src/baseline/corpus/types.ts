@@ -43,6 +43,21 @@ export interface CorpusReport {
 
 export type CorpusFormat = "jsonl" | "wide-csv" | "files";
 
+/**
+ * Where a corpus's text comes from. The ops layer adapts a file to this; the readers here never touch
+ * the file system, so they can be fed from memory in tests or from any stream.
+ */
+export interface CorpusSource {
+  /** How reports and errors name the corpus (its path). */
+  readonly name: string;
+  /** The first few kilobytes as text, for telling the format. */
+  head(): string;
+  /** The lines with their 1-based numbers; `onProgress` gets units done so far and the total. */
+  lines(onProgress?: (done: number, total: number) => void): AsyncIterable<{ text: string; line: number }>;
+  /** File indexes: reads the app a row names (as listed, relative to the index). */
+  readApp?(listed: string): { id: string; permissions: string[] };
+}
+
 export interface CorpusOptions {
   format?: CorpusFormat;
   idField?: string;
@@ -51,9 +66,8 @@ export interface CorpusOptions {
   labelField?: string;
   /** Label values that mean "flagged" (compared as text; default `1` and `true`). */
   positive?: string[];
-  /** Wide CSV: a file naming the permission columns (first CSV column), optionally filtered by its second column. */
-  columnsFrom?: string;
-  columnsKind?: string;
+  /** Wide CSV: the permission columns to keep (the rest are ignored); every one must be in the header. */
+  columns?: ReadonlySet<string>;
   /** Category aliases: source name → baseline name. */
   aliases?: Map<string, string>;
   /** Reject rows without a category (true when the corpus feeds category baselines). */

@@ -2,18 +2,20 @@
  * Wide binary CSV corpora: a header row, one 0/1 column per permission (bare platform names allowed),
  * and optional label, id and category columns.
  */
-import { readFileSync } from "node:fs";
 import { CorpusError } from "../../errors.js";
 import { normalizePermissionName } from "../../platform/permissions.js";
-import { Ledger, lines } from "./common.js";
+import type { Ledger } from "./common.js";
 import { splitCsvLine } from "../../util/csv.js";
-import type { CorpusOptions, CorpusRecord } from "./types.js";
+import type { CorpusOptions, CorpusRecord, CorpusSource } from "./types.js";
 
-/** Reads the permission column names from a column file: first CSV field, filtered by the second when asked. */
-export function readColumnList(path: string, kind?: string): Set<string> {
+/**
+ * Parses a column list (the text of a `--columns-from` file): the first CSV field of each line names a
+ * permission column, kept when `kind` is not given or equals the second field. `path` names it in errors.
+ */
+export function parseColumnList(text: string, path: string, kind?: string): Set<string> {
   const out = new Set<string>();
-  for (const text of readFileSync(path, "utf8").split(/\r?\n/)) {
-    const f = splitCsvLine(text);
+  for (const line of text.split(/\r?\n/)) {
+    const f = splitCsvLine(line);
     if (!f || f[0].trim() === "") continue;
     if (kind === undefined || (f[1] ?? "").trim() === kind) out.add(f[0].trim());
   }
@@ -21,17 +23,18 @@ export function readColumnList(path: string, kind?: string): Set<string> {
   return out;
 }
 
-export async function* readWideCsv(path: string, options: CorpusOptions, ledger: Ledger): AsyncGenerator<CorpusRecord> {
+export async function* readWideCsv(source: CorpusSource, options: CorpusOptions, ledger: Ledger): AsyncGenerator<CorpusRecord> {
+  const path = source.name;
   const labelColumn = options.labelField ?? "label";
   const idColumn = options.idField;
   const categoryColumn = options.categoryField;
-  const wanted = options.columnsFrom ? readColumnList(options.columnsFrom, options.columnsKind) : undefined;
+  const wanted = options.columns;
   let header: string[] | undefined;
   let permissionIdx: number[] = [];
   let labelIdx = -1;
   let idIdx = -1;
   let categoryIdx = -1;
-  for await (const { text, line } of lines(path, options.onProgress)) {
+  for await (const { text, line } of source.lines(options.onProgress)) {
     if (!header) {
       header = splitCsvLine(text.replace(/^\uFEFF/, ""))?.map((h) => h.trim());
       if (!header) throw new CorpusError("header row has an unterminated quote", { file: path });

@@ -1,9 +1,10 @@
 /**
  * All archive access lives here (adm-zip underneath), so that the reader can change without touching
- * the decoders. Two entry points: `openArchiveFile` for a path, `openArchiveBytes` for bytes in memory.
+ * the decoders. Two entry points: `openArchive` for a random-access source (a file, opened by the ops
+ * layer: nothing here touches the file system), `openArchiveBytes` for bytes in memory.
  *
  * Reading a large APK: adm-zip parses an in-memory buffer. Rather than read a 200 MB file to look at a
- * 3 KB manifest, `openArchiveFile` reads the end-of-central-directory record and the central directory,
+ * 3 KB manifest, `openArchive` reads the end-of-central-directory record and the central directory,
  * hands adm-zip just those (with the directory's offset rewritten to 0), and reads an entry's local
  * header and data from the file itself when asked. Time and memory follow what is read, not the file size.
  *
@@ -14,7 +15,6 @@
  * Inflation is ours, not adm-zip's: it would inflate a zip bomb in full, so every entry is checked
  * against its declared size and a named limit first, and inflated with a hard output cap.
  */
-import { closeSync, fstatSync, openSync, readSync } from "node:fs";
 import { crc32, inflateRawSync } from "node:zlib";
 import AdmZip from "adm-zip";
 import { ArchiveError, LimitError } from "../../errors.js";
@@ -46,6 +46,22 @@ const LOCAL_HEADER_SIZE = 30;
 /** Files up to this size are simply read whole. */
 const READ_WHOLE_BELOW = 1024 * 1024;
 
+/**
+ * Random access to bytes kept elsewhere (a file): the ops layer adapts a file descriptor to this, so
+ * that the container readers stay free of I/O.
+ */
+export interface RandomAccessSource {
+  readonly size: number;
+  /** Copies up to `length` bytes at `position` into `into` at `offset`; returns how many were copied (0 at the end). */
+  read(into: Uint8Array, offset: number, length: number, position: number): number;
+  close(): void;
+}
+
+/** The fields of a directory entry that a manifest's provenance records. */
+export function entryProvenance(e: ArchiveEntryInfo): { name: string; method: "stored" | "deflated"; compressedSize: number; size: number } {
+  return { name: e.name, method: e.method === "stored" ? "stored" : "deflated", compressedSize: e.compressedSize, size: e.size };
+}
+
 export function looksLikeZip(bytes: Uint8Array): boolean {
   return ZIP_LOCAL_MAGIC.every((b, i) => bytes[i] === b) || (bytes[0] === 0x50 && bytes[1] === 0x4b && bytes[2] === 0x05 && bytes[3] === 0x06);
 }
@@ -75,16 +91,22 @@ function bufferSource(buf: Buffer): Source {
   };
 }
 
-function fileSource(fd: number, size: number, close: () => void): Source {
+function randomAccess(src: RandomAccessSource): Source {
+  let open = true;
   return {
-    size,
-    readAt: (into, offset, length, position) => readAt(fd, into, offset, length, position),
+    size: src.size,
+    readAt: (into, offset, length, position) => readFully(src, into, offset, length, position),
     slice(position, length) {
       const b = Buffer.alloc(length);
-      readAt(fd, b, 0, length, position);
+      readFully(src, b, 0, length, position);
       return b;
     },
-    close,
+    close() {
+      if (open) {
+        open = false;
+        src.close();
+      }
+    },
   };
 }
 
@@ -96,35 +118,23 @@ export function openArchiveBytes(bytes: Uint8Array, only?: EntryFilter): Archive
 }
 
 /**
- * Opens an archive on disk, reading only what is needed from large files. With `only`, the reader
- * lists and reads just the entries of those names (all records of each name, so duplicates still show).
+ * Opens an archive kept outside memory, reading only what is needed from large ones. With `only`, the
+ * reader lists and reads just the entries of those names (all records of each name, so duplicates still
+ * show). The source is closed by the reader, or here on failure.
  */
-export function openArchiveFile(path: string, only?: EntryFilter): ArchiveReader {
-  const fd = openSync(path, "r");
-  let size: number;
-  try {
-    size = fstatSync(fd).size;
-  } catch (e) {
-    closeSync(fd);
-    throw e;
-  }
-  return openArchiveFd(fd, size, only);
-}
-
-/** As openArchiveFile, for a file already open; `fd` is closed by the reader, or here on failure. */
-export function openArchiveFd(fd: number, size: number, only?: EntryFilter): ArchiveReader {
-  if (size < READ_WHOLE_BELOW) {
+export function openArchive(source: RandomAccessSource, only?: EntryFilter): ArchiveReader {
+  const src = randomAccess(source);
+  if (source.size < READ_WHOLE_BELOW) {
     // Small files: one read, then everything from memory.
-    const buf = Buffer.alloc(size);
+    const buf = Buffer.alloc(source.size);
     try {
-      readAt(fd, buf, 0, size, 0);
+      src.readAt(buf, 0, source.size, 0);
     } finally {
-      closeSync(fd);
+      src.close();
     }
     return openSource(bufferSource(buf), only, buf);
   }
-  let open = true;
-  return openSource(fileSource(fd, size, () => { if (open) { open = false; closeSync(fd); } }), only);
+  return openSource(src, only);
 }
 
 function openSource(src: Source, only: EntryFilter | undefined, whole?: Buffer): ArchiveReader {
@@ -137,19 +147,20 @@ function openSource(src: Source, only: EntryFilter | undefined, whole?: Buffer):
     const cdSize = tail.readUInt32LE(eocd + 12); // EOCD: size of the central directory
     const cdOffset = tail.readUInt32LE(eocd + 16); // EOCD: offset of start of central directory
     if (cdOffset === 0xffffffff || cdSize === 0xffffffff) {
-      // Zip64: rare for APKs; let adm-zip find its way through the whole file.
+      // Zip64: rare for APKs; adm-zip finds its way through the whole file, which is therefore read
+      // whole — but only up to a named cap, never a file of any size.
+      if (!whole && size > LIMITS.MAX_ZIP64_ARCHIVE_BYTES) throw new LimitError("MAX_ZIP64_ARCHIVE_BYTES", size, LIMITS.MAX_ZIP64_ARCHIVE_BYTES, "zip64 archive has a size in bytes of");
       const buf = whole ?? src.slice(0, size);
       src.close();
       return new AdmArchive(buf, () => {});
     }
     const eocdAt = tailStart + eocd;
     if (cdOffset + cdSize > eocdAt) throw new ArchiveError(`central directory (${cdSize} bytes at ${cdOffset}) overlaps its end record at ${eocdAt}`);
-    let records: Buffer = src.slice(cdOffset, cdSize);
-    let count = tail.readUInt16LE(eocd + 10); // EOCD: total number of entries
-    if (only) {
-      const names = typeof only === "function" ? undefined : new Set(only);
-      ({ records, count } = selectRecords(records, typeof only === "function" ? only : (n) => names!.has(n)));
-    }
+    // The record count is checked on the raw directory, before adm-zip builds an object per record.
+    const names = only === undefined || typeof only === "function" ? undefined : new Set(only);
+    const keep = only === undefined ? () => true : typeof only === "function" ? only : (n: string) => names!.has(n);
+    const { records, count } = selectRecords(src.slice(cdOffset, cdSize), keep);
+    if (count > 0xffff) throw new ArchiveError(`archive lists ${count} entries in a directory without zip64 records, which hold at most 65535`);
     // [central directory][end record], the end record pointing at offset 0 and without its comment.
     const end = Buffer.alloc(EOCD_SIZE);
     tail.copy(end, 0, eocd, eocd + EOCD_SIZE);
@@ -168,11 +179,16 @@ function openSource(src: Source, only: EntryFilter | undefined, whole?: Buffer):
 const CENTRAL_SIGNATURE = 0x02014b50;
 const CENTRAL_HEADER_SIZE = 46;
 
-/** Keeps the central directory records whose names `keep` accepts, in one pass over the directory. */
+/**
+ * Keeps the central directory records whose names `keep` accepts, in one pass over the directory,
+ * counting every record against MAX_ARCHIVE_ENTRIES as it goes.
+ */
 function selectRecords(cd: Buffer, keep: (name: string) => boolean): { records: Buffer; count: number } {
   const kept: Buffer[] = [];
+  let seen = 0;
   for (let p = 0; p + CENTRAL_HEADER_SIZE <= cd.length; ) {
     if (cd.readUInt32LE(p) !== CENTRAL_SIGNATURE) throw new ArchiveError(`central directory is damaged at byte ${p} of ${cd.length}`);
+    if (++seen > LIMITS.MAX_ARCHIVE_ENTRIES) throw new LimitError("MAX_ARCHIVE_ENTRIES", seen, LIMITS.MAX_ARCHIVE_ENTRIES, "archive has an entry count of at least");
     // Central header: file name length (u16 at 28), extra field length (u16 at 30), comment length (u16 at 32).
     const nameLen = cd.readUInt16LE(p + 28);
     const next = p + CENTRAL_HEADER_SIZE + nameLen + cd.readUInt16LE(p + 30) + cd.readUInt16LE(p + 32);
@@ -180,13 +196,13 @@ function selectRecords(cd: Buffer, keep: (name: string) => boolean): { records: 
     if (keep(cd.toString("utf8", p + CENTRAL_HEADER_SIZE, p + CENTRAL_HEADER_SIZE + nameLen))) kept.push(cd.subarray(p, next));
     p = next;
   }
-  return { records: Buffer.concat(kept), count: kept.length };
+  return { records: kept.length === 1 ? kept[0] : Buffer.concat(kept), count: kept.length };
 }
 
-function readAt(fd: number, buf: Buffer, offset: number, length: number, position: number): void {
+function readFully(src: RandomAccessSource, buf: Buffer, offset: number, length: number, position: number): void {
   let done = 0;
   while (done < length) {
-    const n = readSync(fd, buf, offset + done, length - done, position + done);
+    const n = src.read(buf, offset + done, length - done, position + done);
     if (n === 0) throw new ArchiveError(`file ended while reading ${length} bytes at offset ${position}`);
     done += n;
   }

@@ -3,11 +3,9 @@
  * file): the manifest of an app bundle module, or of an `aapt2 link --proto-format` build. Bytes in, the
  * same XmlDocument as the binary and plain readers out; the manifest model is then built as for them.
  */
-import { readFileSync } from "node:fs";
-import { join } from "node:path";
 import protobuf from "protobufjs";
-import { BinaryXmlError } from "../../errors.js";
-import { packageRoot } from "../../ops/package-root.js";
+import { ProtoXmlError } from "../../errors.js";
+import { RESOURCES_PROTO_DESCRIPTOR } from "./generated/descriptor.js";
 import { LIMITS } from "../../limits.js";
 import { checkLimit } from "../binary/reader.js";
 import { typedValue, type TypedValue } from "../binary/values.js";
@@ -17,7 +15,8 @@ import { ANDROID_NS, adoptChild, type XmlAttribute, type XmlDocument, type XmlEl
 let root: protobuf.Root | undefined;
 
 function protoType(name: string): protobuf.Type {
-  root ??= protobuf.parse(readFileSync(join(packageRoot(), "src/extract/proto/resources.proto"), "utf8"), { keepCase: true }).root;
+  // The descriptor is generated from resources.proto at build time (scripts/gen.mjs).
+  root ??= protobuf.Root.fromJSON(RESOURCES_PROTO_DESCRIPTOR as protobuf.INamespace);
   return root.lookupType(`overask.aapt.${name}`);
 }
 
@@ -38,7 +37,7 @@ export function protoResourceResolver(bytes: Uint8Array): (id: number) => TypedV
     const type = protoType("ResourceTable");
     table = type.toObject(type.decode(bytes), { defaults: false, longs: Number, enums: Number }) as PbTable;
   } catch (e) {
-    throw new BinaryXmlError(`not a protobuf resource table (${(e as Error).message})`);
+    throw new ProtoXmlError(`not a protobuf resource table (${(e as Error).message})`);
   }
   const values = new Map<number, TypedValue>();
   for (const pkg of table.package ?? []) {
@@ -102,16 +101,76 @@ function itemValue(item: PbItem, fallback: string | undefined): TypedValue {
   return { kind: "string", value: fallback ?? "" };
 }
 
+/** Protobuf wire types (protobuf encoding guide: varint 0, 64-bit 1, length-delimited 2, 32-bit 5). */
+const WIRE_VARINT = 0;
+const WIRE_I64 = 1;
+const WIRE_LEN = 2;
+const WIRE_I32 = 5;
+
+/**
+ * protobufjs decodes nested messages recursively and has no depth limit, so a manifest nested a
+ * hundred thousand elements deep would exhaust the stack inside it. Before decoding, this walks the wire
+ * format along the only recursive path of the schema — XmlNode.element (field 1) → XmlElement.child
+ * (field 5) → XmlNode — with an explicit stack, checking MAX_DEPTH and MAX_ELEMENT_COUNT. Bytes it cannot
+ * make sense of are left to the decoder, which reports them.
+ */
+export function checkProtoXmlShape(bytes: Uint8Array): void {
+  // Each frame: the end of a message, and whether it is an XmlNode (else an XmlElement).
+  const stack: { end: number; node: boolean }[] = [{ end: bytes.length, node: true }];
+  let elements = 0;
+  let p = 0;
+  const varint = (): number | undefined => {
+    let v = 0;
+    for (let shift = 0; shift < 35; shift += 7) {
+      if (p >= bytes.length) return undefined;
+      const b = bytes[p++];
+      v += (b & 0x7f) * 2 ** shift;
+      if (b < 0x80) return v;
+    }
+    return undefined;
+  };
+  while (stack.length) {
+    const frame = stack[stack.length - 1];
+    if (p >= frame.end) {
+      p = frame.end;
+      stack.pop();
+      continue;
+    }
+    const key = varint();
+    if (key === undefined) return;
+    const field = Math.floor(key / 8);
+    const wire = key % 8;
+    if (wire === WIRE_VARINT) { if (varint() === undefined) return; continue; }
+    if (wire === WIRE_I64) { p += 8; continue; }
+    if (wire === WIRE_I32) { p += 4; continue; }
+    if (wire !== WIRE_LEN) return;
+    const len = varint();
+    if (len === undefined || p + len > frame.end) return;
+    if ((frame.node && field === 1) || (!frame.node && field === 5)) {
+      if (frame.node) {
+        elements++;
+        checkLimit("MAX_ELEMENT_COUNT", elements, "document has an element count of");
+        // Elements so far on the path: every other frame below this one is an XmlNode.
+        checkLimit("MAX_DEPTH", Math.ceil(stack.length / 2), "element nesting depth reaches");
+      }
+      stack.push({ end: p + len, node: !frame.node });
+      continue;
+    }
+    p += len;
+  }
+}
+
 export function decodeProtoXml(bytes: Uint8Array): XmlDocument {
   checkLimit("MAX_MANIFEST_BYTES", bytes.length, "protobuf XML has a size in bytes of");
+  checkProtoXmlShape(bytes);
   let node: PbNode;
   try {
     const type = XmlNode();
     node = type.toObject(type.decode(bytes), { defaults: false, longs: Number, enums: Number }) as PbNode;
   } catch (e) {
-    throw new BinaryXmlError(`not a protobuf XML manifest (${(e as Error).message})`);
+    throw new ProtoXmlError(`not a protobuf XML manifest (${(e as Error).message})`);
   }
-  if (!node.element) throw new BinaryXmlError("protobuf XML holds no element");
+  if (!node.element) throw new ProtoXmlError("protobuf XML holds no element");
   const namespaces: { prefix: string; uri: string }[] = [];
   let count = 0;
   const convert = (pb: PbNode, parent: XmlElement | undefined, depth: number): XmlElement => {

@@ -7,14 +7,15 @@ import { closeSync, openSync, readFileSync, readSync, readdirSync, statSync } fr
 import { join, relative, resolve, dirname, sep } from "node:path";
 import { splitCsvLine } from "../../util/csv.js";
 import { InputError } from "../../errors.js";
-import { detectKind } from "../../extract/index.js";
+import { DETECT_BYTES, detectKind } from "../../extract/detect.js";
+import { fnv1a32 } from "../../util/hash.js";
 import type { SweepInput } from "./rows.js";
 
 function head(path: string): Uint8Array {
   const fd = openSync(path, "r");
   try {
-    const b = Buffer.alloc(64);
-    const n = readSync(fd, b, 0, 64, 0);
+    const b = Buffer.alloc(DETECT_BYTES);
+    const n = readSync(fd, b, 0, DETECT_BYTES, 0);
     return b.subarray(0, n);
   } finally {
     closeSync(fd);
@@ -87,9 +88,7 @@ export function listInputs(source: string): SweepInput[] {
 
 /** 32-bit FNV-1a of the id: a stable way to split inputs into shards on any machine. */
 export function shardOf(id: string, n: number): number {
-  let h = 0x811c9dc5;
-  for (let i = 0; i < id.length; i++) h = Math.imul(h ^ id.charCodeAt(i), 0x01000193);
-  return (h >>> 0) % n;
+  return fnv1a32(id) % n;
 }
 
 /** Parses `i/n` (1-based): this machine takes the inputs whose shard is i−1. Undefined when malformed. */

@@ -3,29 +3,34 @@
  * output as they are known (whole lines), so an interrupted run loses nothing, and nothing is held in
  * memory. Every row carries a stable id (the input's path as listed): two runs on the same inputs give
  * the same rows, in the order they finished. `--resume` keeps the rows of unchanged inputs (same size and
- * modification time) and sweeps the rest.
+ * modification time) and sweeps the rest. The HTML report, when asked for, is written from the output.
  */
-import { closeSync, existsSync, openSync, readFileSync, writeSync } from "node:fs";
-import { join } from "node:path";
-import { Worker } from "node:worker_threads";
-import { readBaselineFile, writeFileAtomic } from "../../baseline/baseline-file.js";
-import { splitCsvLine } from "../../util/csv.js";
-import { InputError, OutputError } from "../../errors.js";
-import { Judge, type JudgeOptions } from "../../score/judge.js";
-import { packageRoot } from "../package-root.js";
+import { closeSync, existsSync, openSync, writeSync } from "node:fs";
+import { OutputError } from "../../errors.js";
+import { csvHeader } from "../../report/csv.js";
+import { sweepToHtml } from "../../report/html/sweep-report.js";
+import { heatmapData } from "../../score/heatmap.js";
+import type { JudgeOptions } from "../../score/judge.js";
+import type { AppRow } from "../../score/row.js";
+import { loadJudge } from "../baseline.js";
+import { outputProblem, writeFileAtomic } from "../files.js";
 import { listInputs, shardOf } from "./inputs.js";
-import { csvHeader, csvRowKey, scoreToLine, type ScoredLine, type SweepInput, type SweepRow } from "./rows.js";
-import type { WorkerSetup } from "./worker.js";
+import { runPool } from "./pool.js";
+import { compactOutput, readRows } from "./resume.js";
+import type { ScoredLine, SweepFormat } from "./rows.js";
 
 export interface SweepOptions {
   source: string;
   output: string;
-  format: "jsonl" | "csv";
-  baselinePath: string;
+  format: SweepFormat;
+  /** Baseline file; the bundled default when absent. */
+  baseline?: string;
   judge: JudgeOptions;
   jobs: number;
   resume: boolean;
   shard?: { index: number; count: number };
+  /** Also write the self-contained HTML report here. */
+  html?: string;
   onProgress?: (done: number, total: number) => void;
 }
 
@@ -36,146 +41,44 @@ export interface SweepSummary {
   failed: number;
   byBand: Record<string, number>;
   top: { id: string; package?: string; risk: number; band?: string }[];
-  /** Every row of the final output, parsed on demand (CSV rows carry the summary columns only). */
-  rows(): SweepRow[];
+  shard?: { index: number; count: number };
+  output: string;
+  html?: string;
+  /** The baseline's risk caution, when it has a model. */
+  caution?: string;
+  /** Every row of the final output, read back on demand (CSV rows carry the summary columns only). */
+  rows(): AppRow[];
 }
 
-function workerFile(): string {
-  const file = join(packageRoot(), "dist/bundle/sweep-worker.js");
-  if (!existsSync(file)) throw new InputError("the sweep worker is not built; run npm run build", { file });
-  return file;
-}
-
-/** Runs the inputs on `jobs` worker threads (or in this thread for one job), calling `done` per batch of rows. */
-async function runPool(inputs: SweepInput[], options: SweepOptions, done: (rows: ScoredLine[]) => void): Promise<void> {
-  if (options.jobs <= 1 || inputs.length <= 1) {
-    const judge = new Judge(readBaselineFile(options.baselinePath));
-    for (let i = 0; i < inputs.length; i += 32) {
-      done(inputs.slice(i, i + 32).map((input) => scoreToLine(judge, input, options.judge, options.format)));
-      // Let the event loop breathe (progress, signals) between batches.
-      await new Promise((r) => setImmediate(r));
-    }
-    return;
-  }
-  const setup: WorkerSetup = {
-    baselinePath: options.baselinePath,
-    format: options.format,
-    ...(options.judge.category ? { category: options.judge.category } : {}),
-    ...(options.judge.categoryIndex ? { categoryIndex: [...options.judge.categoryIndex] } : {}),
-    levels: [...(options.judge.levels ?? new Map())],
-  };
-  const file = workerFile();
-  let next = 0;
-  await new Promise<void>((resolve, reject) => {
-    let running = 0;
-    const workers: Worker[] = [];
-    const finish = (err?: Error) => {
-      for (const w of workers) void w.terminate();
-      if (err) reject(err);
-      else resolve();
-    };
-    const feed = (w: Worker) => {
-      if (next >= inputs.length) {
-        running--;
-        if (running === 0) finish();
-        return;
-      }
-      // Batches shrink towards the end so that the workers finish together.
-      const size = Math.max(1, Math.min(32, Math.ceil((inputs.length - next) / (4 * workers.length))));
-      w.postMessage(inputs.slice(next, next + size));
-      next += size;
-    };
-    const n = Math.min(options.jobs, inputs.length);
-    for (let i = 0; i < n; i++) workers.push(new Worker(file, { workerData: setup }));
-    for (const w of workers) {
-      running++;
-      w.on("message", (rows: ScoredLine[]) => {
-        try {
-          done(rows);
-        } catch (e) {
-          finish(e as Error);
-          return;
-        }
-        feed(w);
-      });
-      w.on("error", (e) => finish(e));
-    }
-    for (const w of workers) feed(w);
-  });
-}
+/** How many of the highest risks the summary keeps. */
+const TOP = 10;
 
 /** Running totals for the summary, so that no result has to stay in memory. */
 class Tally {
   scored = 0;
   failed = 0;
   readonly byBand: Record<string, number> = {};
-  readonly top: { id: string; package?: string; risk: number; band?: string }[] = [];
+  readonly top: SweepSummary["top"] = [];
   add(r: Omit<ScoredLine, "line">): void {
     if (r.status === "scored") this.scored++;
     else this.failed++;
     if (r.band) this.byBand[r.band] = (this.byBand[r.band] ?? 0) + 1;
     if (r.risk === undefined) return;
     const last = this.top[this.top.length - 1];
-    if (this.top.length < 10 || r.risk > last.risk || (r.risk === last.risk && r.id < last.id)) {
+    if (this.top.length < TOP || r.risk > last.risk || (r.risk === last.risk && r.id < last.id)) {
       this.top.push({ id: r.id, ...(r.package ? { package: r.package } : {}), risk: r.risk, ...(r.band ? { band: r.band } : {}) });
       this.top.sort((x, y) => y.risk - x.risk || x.id.localeCompare(y.id));
-      if (this.top.length > 10) this.top.pop();
+      if (this.top.length > TOP) this.top.pop();
     }
   }
-}
-
-/**
- * Resuming: keeps from the earlier output the last complete row of every input that is unchanged (same
- * size and modification time), drops torn, stale and duplicate lines, and writes the result back
- * atomically. Returns the ids kept.
- */
-function compact(options: SweepOptions, inputs: SweepInput[], tally: Tally): Set<string> {
-  const kept = new Set<string>();
-  if (!existsSync(options.output)) return kept;
-  const current = new Map(inputs.map((i) => [i.id, i]));
-  const text = readFileSync(options.output, "utf8");
-  const lines = text.split("\n");
-  if (!text.endsWith("\n")) lines.pop(); // cut short by the interruption
-  const latest = new Map<string, number>();
-  lines.forEach((line, i) => {
-    if (!line) return;
-    const r = briefOf(line, options.format);
-    const input = r && current.get(r.id);
-    if (r && input && r.size === input.size && r.mtimeMs === input.mtimeMs) latest.set(r.id, i);
-  });
-  let out = options.format === "csv" ? csvHeader() : "";
-  for (const [id, i] of latest) {
-    out += `${lines[i]}\n`;
-    kept.add(id);
-    tally.add(briefOf(lines[i], options.format)!);
-  }
-  writeFileAtomic(options.output, out);
-  return kept;
-}
-
-/** The summary fields of an output line, or undefined for a line that is not a complete row. */
-function briefOf(line: string, format: "jsonl" | "csv"): (Omit<ScoredLine, "line"> & { size: number; mtimeMs: number }) | undefined {
-  if (format === "jsonl") {
-    try {
-      const r = JSON.parse(line) as SweepRow;
-      if (typeof r.id !== "string") return undefined;
-      return { id: r.id, size: r.size, mtimeMs: r.mtimeMs, status: r.status, ...(r.package ? { package: r.package } : {}), ...(r.risk !== undefined ? { risk: r.risk } : {}), ...(r.band ? { band: r.band } : {}) };
-    } catch {
-      return undefined;
-    }
-  }
-  const f = splitCsvLine(line);
-  const key = f ? csvRowKey(f) : undefined;
-  if (!key || key.id === "id") return undefined;
-  const r = rowFromLine(line, "csv");
-  return { id: key.id, size: key.size, mtimeMs: key.mtimeMs, status: r.status, ...(r.package ? { package: r.package } : {}), ...(r.risk !== undefined ? { risk: r.risk } : {}), ...(r.band ? { band: r.band } : {}) };
 }
 
 export async function sweep(options: SweepOptions): Promise<SweepSummary> {
+  const { judge, baselinePath, baselineName } = loadJudge(options.baseline);
   let inputs = listInputs(options.source);
   if (options.shard) inputs = inputs.filter((i) => shardOf(i.id, options.shard!.count) === options.shard!.index - 1);
   const tally = new Tally();
-  const kept = options.resume ? compact(options, inputs, tally) : new Set<string>();
+  const kept = options.resume ? compactOutput(options.output, options.format, inputs, (r) => tally.add(r)) : new Set<string>();
   const todo = inputs.filter((i) => !kept.has(i.id));
 
   // Append each batch of results as it arrives; on a fresh run, start the file anew.
@@ -186,11 +89,11 @@ export async function sweep(options: SweepOptions): Promise<SweepSummary> {
     fd = openSync(options.output, append ? "a" : "w");
     if (!append && options.format === "csv") writeSync(fd, csvHeader());
   } catch (e) {
-    throw new OutputError(`cannot be written (${(e as { code?: string }).code ?? (e as Error).message})`, { file: options.output });
+    throw new OutputError(`cannot be written: ${outputProblem(e)}`, { file: options.output });
   }
   let done = kept.size;
   try {
-    await runPool(todo, options, (batch) => {
+    await runPool(todo, { baselinePath, judge: options.judge, format: options.format, jobs: options.jobs }, (batch) => {
       // One write per batch of whole lines: an interruption can tear at most the last line.
       let text = "";
       for (const scored of batch) {
@@ -200,7 +103,7 @@ export async function sweep(options: SweepOptions): Promise<SweepSummary> {
       try {
         writeSync(fd, text);
       } catch (e) {
-        throw new OutputError(`cannot be written (${(e as { code?: string }).code ?? (e as Error).message})`, { file: options.output });
+        throw new OutputError(`cannot be written: ${outputProblem(e)}`, { file: options.output });
       }
       done += batch.length;
       options.onProgress?.(done, inputs.length);
@@ -208,34 +111,32 @@ export async function sweep(options: SweepOptions): Promise<SweepSummary> {
   } finally {
     closeSync(fd);
   }
-  return {
+  const summary: SweepSummary = {
     inputs: inputs.length,
     skipped: kept.size,
     scored: tally.scored,
     failed: tally.failed,
     byBand: tally.byBand,
     top: tally.top,
-    rows: () =>
-      readFileSync(options.output, "utf8")
-        .split("\n")
-        .filter((l) => l && briefOf(l, options.format))
-        .map((l) => rowFromLine(l, options.format))
-        .sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0)),
+    ...(options.shard ? { shard: options.shard } : {}),
+    output: options.output,
+    ...(options.html ? { html: options.html } : {}),
+    ...(judge.scorer ? { caution: judge.file.caution } : {}),
+    rows: () => readRows(options.output, options.format),
   };
-}
-
-/** A row read back from the output (CSV keeps only the summary columns). */
-function rowFromLine(line: string, format: "jsonl" | "csv"): SweepRow {
-  if (format === "jsonl") return JSON.parse(line) as SweepRow;
-  const f = splitCsvLine(line) ?? [];
-  const risk = f[9] ? Number(f[9]) : undefined;
-  return {
-    id: f[0],
-    size: Number(f[1]),
-    mtimeMs: Number(f[2]),
-    status: f[3] === "failed" ? "failed" : "scored",
-    ...(f[4] ? { package: f[4] } : {}),
-    ...(risk !== undefined ? { risk } : {}),
-    ...(f[10] ? { band: f[10] } : {}),
-  };
+  if (options.html) {
+    const rows = summary.rows();
+    writeFileAtomic(
+      options.html,
+      sweepToHtml({
+        rows,
+        totals: { inputs: summary.inputs, scored: summary.scored, failed: summary.failed, byBand: summary.byBand },
+        heatmap: heatmapData(rows, judge.baseline),
+        baselineName,
+        caution: judge.file.caution,
+        ...(judge.scorer ? { cutPoints: judge.scorer.cuts, baseRate: judge.scorer.model.evaluation.baseRate } : {}),
+      }),
+    );
+  }
+  return summary;
 }

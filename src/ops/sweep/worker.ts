@@ -2,14 +2,14 @@
  * A sweep worker thread: loads the baseline once, then reads and judges the inputs it is sent.
  */
 import { parentPort, workerData } from "node:worker_threads";
-import { readBaselineFile } from "../../baseline/baseline-file.js";
 import { Judge } from "../../score/judge.js";
 import type { Level } from "../../score/types.js";
-import { scoreToLine, type SweepInput } from "./rows.js";
+import { readBaselineFile } from "../baseline.js";
+import { scoreToLine, type SweepFormat, type SweepInput } from "./rows.js";
 
 export interface WorkerSetup {
   baselinePath: string;
-  format: "jsonl" | "csv";
+  format: SweepFormat;
   category?: string;
   categoryIndex?: [string, string][];
   levels?: [string, Level | "off"][];

@@ -14,6 +14,7 @@ export const exportedUnguarded: Check = {
     description: "Other apps can start, bind or query this component without holding any permission: attack surface worth a look.",
     docs: "docs/checks/exported-unguarded.md",
     defaultLevel: "note",
+    tags: [],
   },
   run(ctx) {
     return ctx.manifest.components

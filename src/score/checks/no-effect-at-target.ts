@@ -9,6 +9,7 @@ export const noEffectAtTarget: Check = {
     description: "The request does nothing at the app's targetSdk (the platform replaced or removed the permission); it can be removed or limited with maxSdkVersion.",
     docs: "docs/checks/no-effect-at-target.md",
     defaultLevel: "note",
+    tags: ["trim"],
   },
   run(ctx) {
     const target = ctx.manifest.targetSdk ?? ctx.manifest.minSdk ?? 1;

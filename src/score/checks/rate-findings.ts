@@ -1,6 +1,7 @@
 /** Shared by the two rate checks: which requested permissions are uncommon, with the numbers behind it. */
 import { requestedPermissionNames } from "../../extract/manifest/model.js";
 import { platformPermission } from "../../platform/permissions.js";
+import { storeAppCanHold } from "../../platform/sensitivity.js";
 import type { CheckContext, Finding, FindingData } from "../types.js";
 
 const pct = (x: number) => `${(100 * x).toFixed(x < 0.01 ? 2 : 1)}%`;
@@ -12,7 +13,7 @@ export function rateFindings(ctx: CheckContext, select: (permission: string) => 
     if (!select(name)) continue;
     // A permission the platform cannot grant is reported by ungrantable-permission instead.
     const platform = platformPermission(name);
-    if (platform && platform.base !== "normal" && platform.base !== "dangerous" && !platform.flags.includes("appop")) continue;
+    if (platform && !storeAppCanHold(platform)) continue;
     // So is an android.permission.* name the platform does not define (unknown-permission).
     if (!platform && name.startsWith("android.permission.")) continue;
     const r = ctx.rate(name);

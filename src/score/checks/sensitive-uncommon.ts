@@ -1,5 +1,5 @@
 /** sensitive-uncommon: like uncommon-for-category, for dangerous, app-op and restricted permissions. */
-import { isSensitive } from "../../baseline/features.js";
+import { isSensitive } from "../../platform/sensitivity.js";
 import { rateFindings, rateMessage } from "./rate-findings.js";
 import type { Check } from "../types.js";
 
@@ -10,6 +10,7 @@ export const sensitiveUncommon: Check = {
     description: "The app requests a dangerous, app-op or restricted permission that few apps of its category request.",
     docs: "docs/checks/sensitive-uncommon.md",
     defaultLevel: "warning",
+    tags: ["rate", "trim"],
   },
   run: (ctx) => rateFindings(ctx, isSensitive),
   message: rateMessage,

@@ -27,6 +27,7 @@ export const specialAccessComponent: Check = {
     description: "The app declares a component bound by a permission through which the user grants special access (accessibility, notification listener, device admin, VPN, input method and similar).",
     docs: "docs/checks/special-access-component.md",
     defaultLevel: "warning",
+    tags: ["special-access"],
   },
   run(ctx) {
     return ctx.manifest.components

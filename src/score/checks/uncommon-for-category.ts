@@ -1,5 +1,5 @@
 /** uncommon-for-category: a requested permission few apps of the category request. */
-import { isSensitive } from "../../baseline/features.js";
+import { isSensitive } from "../../platform/sensitivity.js";
 import { rateFindings, rateMessage } from "./rate-findings.js";
 import type { Check } from "../types.js";
 
@@ -10,6 +10,7 @@ export const uncommonForCategory: Check = {
     description: "The app requests a permission that few apps of its category request: even the upper end of the rate's confidence interval is below the baseline's threshold.",
     docs: "docs/checks/uncommon-for-category.md",
     defaultLevel: "note",
+    tags: ["rate", "trim"],
   },
   run: (ctx) => rateFindings(ctx, (p) => !isSensitive(p)),
   message: rateMessage,

@@ -1,4 +1,5 @@
 /** ungrantable-permission: signature, privileged or internal permissions a store app cannot be granted. */
+import { storeAppCanHold } from "../../platform/sensitivity.js";
 import type { Check } from "../types.js";
 
 export const ungrantablePermission: Check = {
@@ -8,6 +9,7 @@ export const ungrantablePermission: Check = {
     description: "The app requests a signature, privileged or internal platform permission, which only the platform itself or preinstalled apps can hold; the request grants nothing to a store app.",
     docs: "docs/checks/ungrantable-permission.md",
     defaultLevel: "note",
+    tags: ["trim"],
   },
   run(ctx) {
     const seen = new Set<string>();
@@ -15,9 +17,7 @@ export const ungrantablePermission: Check = {
       .filter((p) => {
         const f = p.facts;
         if (f.origin !== "platform" || p.removedByTools || seen.has(p.name)) return false;
-        if (f.base === "normal" || f.base === "dangerous") return false;
-        // App-op permissions can be granted to an ordinary app as special access.
-        if (f.flags?.includes("appop")) return false;
+        if (storeAppCanHold(f)) return false;
         seen.add(p.name);
         return true;
       })

@@ -38,6 +38,7 @@ export const unknownPermission: Check = {
     description: "The app requests an android.permission.* name that the platform does not define: a typo, or a permission from another platform version.",
     docs: "docs/checks/unknown-permission.md",
     defaultLevel: "warning",
+    tags: ["trim"],
   },
   run(ctx) {
     const seen = new Set<string>();

@@ -8,6 +8,7 @@ export const weakCustomPermission: Check = {
     description: "An exported component is guarded by a permission the app declares with protection level normal or dangerous, which any app can request (and, for normal, is granted at install).",
     docs: "docs/checks/weak-custom-permission.md",
     defaultLevel: "warning",
+    tags: [],
   },
   run(ctx) {
     const declared = new Map(ctx.manifest.declaredPermissions.map((d) => [d.name, d]));

@@ -5,9 +5,10 @@
 import { requestedPermissionNames, type Manifest, type RequestedPermission } from "../../extract/manifest/model.js";
 import type { CheckResult } from "../judge.js";
 import type { PermissionOrigin } from "../merge-report.js";
+import { checkIdsTagged } from "../registry.js";
 import { levelRank, type Level } from "../types.js";
 
-const TRIM_CHECKS = new Set(["sensitive-uncommon", "uncommon-for-category", "ungrantable-permission", "no-effect-at-target", "unknown-permission"]);
+const TRIM_CHECKS = checkIdsTagged("trim");
 
 export type TrimAction =
   /** Delete the element from the app's own manifest. */

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { qualifyClassName } from "../../../src/extract/manifest/build.js";
 import { readManifestBytes } from "../../../src/extract/index.js";
-import { readManifestFile } from "../../../src/extract/index.js";
+import { readManifestFile } from "../../../src/ops/read-manifest.js";
 import { APK_DIR } from "../../helpers/paths.js";
 
 const manifest = (target: number, app: string, extra = "") =>

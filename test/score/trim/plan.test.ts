@@ -3,7 +3,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { EXIT } from "../../../src/cli/exit-codes.js";
-import { readManifestFile } from "../../../src/extract/index.js";
+import { readManifestFile } from "../../../src/ops/read-manifest.js";
 import { requestedPermissionNames } from "../../../src/extract/manifest/model.js";
 import { parseMergeReport } from "../../../src/score/merge-report.js";
 import { cli } from "../../helpers/cli.js";

@@ -1,0 +1,19 @@
+/** `overask facts`. */
+import { facts } from "../ops/facts.js";
+import { factsToJson, factsToText } from "../report/facts.js";
+import { pickStyle } from "../report/style.js";
+import { EXIT } from "./exit-codes.js";
+import type { Io } from "./io.js";
+
+export function factsCommand(files: string[], o: { format: "text" | "json" }, io: Io, debug: boolean): number {
+  let failed = false;
+  const results = facts(files, {
+    onError: (_file, e) => {
+      io.stderr.write(`overask: ${e.describe()}\n`);
+      if (debug && e.stack) io.stderr.write(`${e.stack}\n`);
+      failed = true;
+    },
+  });
+  io.stdout.write(o.format === "json" ? factsToJson(results) : factsToText(results.filter((r) => r.manifest), pickStyle(io.stdout, io.env)));
+  return failed ? EXIT.INPUT : EXIT.OK;
+}

@@ -1,0 +1,33 @@
+/** `overask trim`. */
+import { loadJudge } from "../ops/baseline.js";
+import { trim } from "../ops/trim.js";
+import { pickStyle } from "../report/style.js";
+import { trimToJson, trimToText } from "../report/trim-delta.js";
+import { EXIT } from "./exit-codes.js";
+import type { Io } from "./io.js";
+import { judgeOptions, type JudgingCliOptions } from "./judging.js";
+
+export interface TrimCliOptions extends JudgingCliOptions {
+  format: "text" | "json";
+  mergeReport?: string;
+  source?: string;
+  keep?: string[];
+  write?: string;
+  inPlace?: boolean;
+}
+
+export async function trimCommand(file: string, o: TrimCliOptions, io: Io): Promise<number> {
+  const { judge } = loadJudge(o.baseline);
+  const { plan, written } = trim(judge, file, {
+    judge: judgeOptions(o),
+    ...(o.mergeReport ? { mergeReport: o.mergeReport } : {}),
+    ...(o.source ? { source: o.source } : {}),
+    ...(o.keep ? { keep: o.keep } : {}),
+    ...(o.write ? { write: o.write } : {}),
+    ...(o.inPlace ? { inPlace: true } : {}),
+  });
+  const caution = judge.scorer ? judge.file.caution : undefined;
+  io.stdout.write(o.format === "json" ? trimToJson(plan, file) : trimToText(plan, file, caution, pickStyle(io.stdout, io.env)));
+  if (written) io.stderr.write(`overask: wrote ${written} (${plan.candidates.length} change${plan.candidates.length === 1 ? "" : "s"})\n`);
+  return EXIT.OK;
+}

@@ -1,0 +1,54 @@
+/**
+ * An APK (or any zip whose top level holds AndroidManifest.xml): the binary manifest, with references
+ * (the label) resolved through resources.arsc when the caller wants them.
+ */
+import { InputError } from "../../errors.js";
+import { decodeBinaryXml } from "../binary/binary-xml.js";
+import { ResourceTable } from "../binary/resource-table.js";
+import { buildManifest, type ReferenceResolver } from "../manifest/build.js";
+import type { Manifest } from "../manifest/model.js";
+import { entryProvenance, type ArchiveReader } from "./zip.js";
+
+export const MANIFEST_ENTRY = "AndroidManifest.xml";
+export const RESOURCE_TABLE_ENTRY = "resources.arsc";
+
+export interface ReadOptions {
+  /**
+   * Resolve resource references (the label) through the resource table (default true). A sweep that does
+   * not show labels turns it off: the resource table is often the largest thing read.
+   */
+  resolveResources?: boolean;
+}
+
+/** Reads the APK's manifest; the archive stays open (the caller closes it). */
+export function fromApk(archive: ArchiveReader, options: ReadOptions = {}): Manifest {
+  const entries = archive.entries();
+  const entry = entries.find((e) => e.name === MANIFEST_ENTRY);
+  if (!entry) throw new InputError(`no ${MANIFEST_ENTRY} in archive (is this an APK?)`);
+  const doc = decodeBinaryXml(archive.read(MANIFEST_ENTRY, "MAX_MANIFEST_BYTES"));
+  // The table is read only when the manifest refers to resources, which is almost always (the label).
+  let resolve: ReferenceResolver | undefined;
+  let tableProblem: string | undefined;
+  const hasTable = entries.some((e) => e.name === RESOURCE_TABLE_ENTRY);
+  if (hasTable && options.resolveResources !== false) {
+    let table: ResourceTable | undefined;
+    let failed = false;
+    resolve = (id) => {
+      if (!table && !failed) {
+        try {
+          table = new ResourceTable(archive.read(RESOURCE_TABLE_ENTRY, "MAX_RESOURCE_TABLE_BYTES"));
+        } catch (e) {
+          // A damaged table costs us the labels, not the manifest: references stay as @0x… ids.
+          if (!(e instanceof InputError)) throw e;
+          failed = true;
+          tableProblem = e.message;
+        }
+      }
+      return table?.resolve(id);
+    };
+  }
+  const m = buildManifest(doc, { kind: "apk", encoding: doc.encoding, entry: entryProvenance(entry), resourceTable: hasTable }, resolve);
+  if (tableProblem) m.notes.push(`resources.arsc could not be read (${tableProblem}); references are shown as ids`);
+  m.notes.push(...archive.notes);
+  return m;
+}

@@ -1,0 +1,97 @@
+/**
+ * Reading a manifest from whatever the user hands us: an APK (or any zip with an AndroidManifest.xml),
+ * an app bundle, a multi-APK archive, a bare binary or protobuf AndroidManifest.xml, or a plain-text
+ * source manifest. The kind is told by content, never by the file name. Bytes come from memory or from
+ * a random-access source the ops layer opens; nothing here touches the file system.
+ */
+import { InputError, LimitError, withFile } from "../errors.js";
+import { LIMITS } from "../limits.js";
+import { decodeBinaryXml } from "./binary/binary-xml.js";
+import { fromApk, MANIFEST_ENTRY, RESOURCE_TABLE_ENTRY, type ReadOptions } from "./containers/apk.js";
+import { BUNDLE_MANIFEST, BUNDLE_RESOURCE_TABLE, fromBundle, isBundle } from "./containers/bundle.js";
+import { fromMultiApk, isMultiApk, NESTED_APK } from "./containers/multi-apk.js";
+import { openArchive, openArchiveBytes, type ArchiveReader, type RandomAccessSource } from "./containers/zip.js";
+import { DETECT_BYTES, detectKind, type DetectedKind } from "./detect.js";
+import { buildManifest } from "./manifest/build.js";
+import type { Manifest } from "./manifest/model.js";
+import { parsePlainXml } from "./plain-xml.js";
+import { decodeProtoXml } from "./proto/proto-xml.js";
+
+export type { ReadOptions } from "./containers/apk.js";
+
+/** The only entries a manifest reader needs; an APK's thousands of others are never parsed. */
+function wantedEntry(name: string): boolean {
+  return name === MANIFEST_ENTRY || name === RESOURCE_TABLE_ENTRY || name === BUNDLE_RESOURCE_TABLE || BUNDLE_MANIFEST.test(name) || NESTED_APK.test(name);
+}
+
+/** Reads a manifest from bytes in memory. `label` names the input in errors. */
+export function readManifestBytes(bytes: Uint8Array, label = "<input>", options: ReadOptions = {}): Manifest {
+  try {
+    const kind = detectKind(bytes.subarray(0, DETECT_BYTES));
+    if (kind === "zip") return fromArchive(openArchiveBytes(bytes, wantedEntry), options);
+    return fromBareBytes(bytes, kind);
+  } catch (e) {
+    throw withFile(e, label);
+  }
+}
+
+/**
+ * Reads a manifest from a random-access source (a file the ops layer opened), touching only the parts
+ * of a large archive it needs. The source is closed before this returns or throws.
+ */
+export function readManifestSource(source: RandomAccessSource, label: string, options: ReadOptions = {}): Manifest {
+  let owned = true;
+  try {
+    const head = new Uint8Array(Math.min(DETECT_BYTES, source.size));
+    const n = head.length ? source.read(head, 0, head.length, 0) : 0;
+    const kind = detectKind(head.subarray(0, n));
+    if (kind === "zip") {
+      owned = false; // from here the archive reader closes it, also when it fails
+      return fromArchive(openArchive(source, wantedEntry), options);
+    }
+    if (kind === "unknown") return fromBareBytes(head.subarray(0, n), kind);
+    if (source.size > LIMITS.MAX_MANIFEST_BYTES) throw new LimitError("MAX_MANIFEST_BYTES", source.size, LIMITS.MAX_MANIFEST_BYTES, "manifest file has a size in bytes of");
+    const bytes = new Uint8Array(source.size);
+    let done = 0;
+    while (done < bytes.length) {
+      const got = source.read(bytes, done, bytes.length - done, done);
+      if (got === 0) break;
+      done += got;
+    }
+    return fromBareBytes(bytes.subarray(0, done), kind);
+  } catch (e) {
+    throw withFile(e, label);
+  } finally {
+    if (owned) source.close();
+  }
+}
+
+function fromBareBytes(bytes: Uint8Array, kind: DetectedKind): Manifest {
+  if (kind === "binary-xml") {
+    const doc = decodeBinaryXml(bytes);
+    return buildManifest(doc, { kind: "binary-xml", encoding: doc.encoding, resourceTable: false });
+  }
+  if (kind === "plain-xml") {
+    const doc = parsePlainXml(bytes);
+    return buildManifest(doc, { kind: "plain-xml", encoding: "text", resourceTable: false });
+  }
+  if (kind === "proto-xml") {
+    const doc = decodeProtoXml(bytes);
+    return buildManifest(doc, { kind: "proto-xml", encoding: "protobuf", resourceTable: false });
+  }
+  if (bytes.length === 0) throw new InputError("is empty");
+  throw new InputError("is not an APK, a binary AndroidManifest.xml or an XML manifest (unrecognised content)");
+}
+
+/** Dispatches a zip by what it holds: an APK, an app bundle, or a multi-APK archive. Closes the archive. */
+function fromArchive(archive: ArchiveReader, options: ReadOptions): Manifest {
+  try {
+    const entries = archive.entries();
+    if (entries.some((e) => e.name === MANIFEST_ENTRY)) return fromApk(archive, options);
+    if (isBundle(entries)) return fromBundle(archive, entries);
+    if (isMultiApk(entries)) return fromMultiApk(archive, entries);
+    throw new InputError(`no ${MANIFEST_ENTRY} in archive (is this an APK?)`);
+  } finally {
+    archive.close();
+  }
+}

@@ -1,0 +1,63 @@
+/**
+ * `trim`: plans the removals for an app, and with `write` patches a copy of its plain source manifest,
+ * then reads the patch back to make sure it is still a manifest without the permissions removed.
+ */
+import { InputError, UsageError } from "../errors.js";
+import { requestedPermissionNames, type Manifest } from "../extract/manifest/model.js";
+import type { Judge, JudgeOptions } from "../score/judge.js";
+import { parseMergeReport } from "../score/merge-report.js";
+import { patchManifest } from "../score/trim/patch.js";
+import { planTrim, type TrimPlan } from "../score/trim/plan.js";
+import { normalizePermissionName } from "../platform/permissions.js";
+import { readTextFile, writeFileAtomic } from "./files.js";
+import { readManifestFile } from "./read-manifest.js";
+
+export interface TrimOptions {
+  judge: JudgeOptions;
+  /** The build's manifest-merger report, to name the library that adds each permission. */
+  mergeReport?: string;
+  /** The app's plain source manifest, when `file` is an APK or a merged manifest. */
+  source?: string;
+  /** Permissions to leave alone. */
+  keep?: readonly string[];
+  /** Write the patched source manifest here. */
+  write?: string;
+  /** Patch the source manifest itself. */
+  inPlace?: boolean;
+}
+
+export interface TrimOutcome {
+  plan: TrimPlan;
+  /** The file written, when one was. */
+  written?: string;
+}
+
+export function trim(judge: Judge, file: string, o: TrimOptions): TrimOutcome {
+  if (o.inPlace && o.write) throw new UsageError("give either --write FILE or --in-place, not both");
+  const manifest = readManifestFile(file);
+  const result = judge.judge(manifest, o.judge);
+  const origins = o.mergeReport ? parseMergeReport(readTextFile(o.mergeReport)) : undefined;
+  const scorer = judge.scorer;
+  const category = result.category.category;
+  const sourcePath = o.source ?? (manifest.input.kind === "plain-xml" ? file : undefined);
+  const source: Manifest | undefined = sourcePath === file ? manifest : sourcePath ? readManifestFile(sourcePath) : undefined;
+  if (source && source.input.kind !== "plain-xml") throw new UsageError(`--source must be a plain source manifest; ${sourcePath} is not`);
+  const full = planTrim(result, {
+    ...(origins ? { origins } : {}),
+    ...(source ? { source } : {}),
+    ...(scorer ? { riskWithout: (perms: string[]) => scorer.probability(category, perms) } : {}),
+  });
+  // A bare name is a platform permission's (`SEND_SMS`), also when the platform does not define it (a typo).
+  const keep = new Set((o.keep ?? []).map((k) => normalizePermissionName(k)).map((k) => (k.includes(".") ? k : `android.permission.${k}`)));
+  const plan = { ...full, candidates: full.candidates.filter((c) => !keep.has(c.permission)) };
+
+  const target = o.inPlace ? sourcePath : o.write;
+  if (!o.write && !o.inPlace) return { plan };
+  if (!sourcePath || !target) throw new UsageError(`--write and --in-place patch a plain source manifest; ${file} is ${manifest.input.kind === "apk" ? "an APK" : "a binary manifest"}: name the source with --source`);
+  writeFileAtomic(target, patchManifest(readTextFile(sourcePath), full, plan.candidates));
+  // The patched file must still read as a manifest, and without the permissions removed.
+  const left = new Set(requestedPermissionNames(readManifestFile(target)));
+  const stillThere = plan.candidates.filter((c) => c.action.kind === "delete" && c.element && left.has(c.permission));
+  if (stillThere.length) throw new InputError(`patched manifest still requests ${stillThere.map((c) => c.permission).join(", ")}`, { file: target });
+  return { plan, written: target };
+}

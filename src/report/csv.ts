@@ -1,0 +1,50 @@
+/**
+ * App rows as CSV: one line an app with the summary columns (the findings as a list of check ids), and
+ * reading those columns back (for `sweep --resume` and its report).
+ */
+import type { AppRow } from "../score/row.js";
+import { csvCell } from "../util/csv.js";
+
+export const ROW_CSV_COLUMNS = ["id", "size", "mtimeMs", "status", "package", "versionName", "versionCode", "category", "fallback", "risk", "band", "errors", "warnings", "notes", "checks", "errorKind", "errorMessage"] as const;
+
+export function csvHeader(): string {
+  return `${ROW_CSV_COLUMNS.join(",")}\n`;
+}
+
+export function rowToCsv(r: AppRow): string {
+  const cells: Record<(typeof ROW_CSV_COLUMNS)[number], string | number | undefined> = {
+    id: r.id,
+    size: r.size,
+    mtimeMs: r.mtimeMs,
+    status: r.status,
+    package: r.package,
+    versionName: r.versionName,
+    versionCode: r.versionCode,
+    category: r.category,
+    fallback: r.fallback,
+    risk: r.risk !== undefined ? r.risk.toFixed(4) : undefined,
+    band: r.band,
+    errors: r.counts?.error,
+    warnings: r.counts?.warning,
+    notes: r.counts?.note,
+    checks: r.findings ? [...new Set(r.findings.map((f) => f.checkId))].join(" ") : undefined,
+    errorKind: r.error?.kind,
+    errorMessage: r.error?.message,
+  };
+  return `${ROW_CSV_COLUMNS.map((c) => csvCell(cells[c])).join(",")}\n`;
+}
+
+/** The summary columns of a CSV row written by rowToCsv, or undefined when the fields are not such a row. */
+export function rowFromCsv(f: readonly string[]): AppRow | undefined {
+  if (f.length !== ROW_CSV_COLUMNS.length || !f[0] || f[0] === "id") return undefined;
+  const risk = f[9] ? Number(f[9]) : undefined;
+  return {
+    id: f[0],
+    size: Number(f[1]),
+    mtimeMs: Number(f[2]),
+    status: f[3] === "failed" ? "failed" : "scored",
+    ...(f[4] ? { package: f[4] } : {}),
+    ...(risk !== undefined ? { risk } : {}),
+    ...(f[10] ? { band: f[10] } : {}),
+  };
+}

@@ -1,0 +1,210 @@
+/**
+ * The sweep report's script, run in the reader's browser. It reads the data embedded in the page and draws
+ * the tiles, the risk histogram (inline SVG), the sortable and filterable table of apps, and the heatmap.
+ * Compiled and inlined into the page at build time (scripts/gen.mjs); no network, no libraries.
+ */
+import type { PageData, PageRow } from "../page-data.js";
+
+const data = JSON.parse(document.getElementById("data")!.textContent ?? "{}") as PageData;
+const pct = (x: number | null | undefined) => (x == null ? "—" : `${(100 * x).toFixed(x < 0.1 ? 1 : 0)}%`);
+const short = (p: string) => p.replace(/^android\.permission\./, "");
+const byId = <T extends HTMLElement = HTMLElement>(id: string) => document.getElementById(id) as T;
+
+function el(tag: string, attrs?: Record<string, string> | null, text?: string | null): HTMLElement {
+  const e = document.createElement(tag);
+  if (attrs) for (const k of Object.keys(attrs)) e.setAttribute(k, attrs[k]);
+  if (text != null) e.textContent = text;
+  return e;
+}
+
+byId("meta").textContent = `${data.rows.length} apps · baseline: ${data.baseline} · ${data.tool}`;
+byId("caution").textContent = data.caution;
+
+const tiles = byId("tiles");
+const tileList: [string, number, string][] = [
+  ["scored", data.totals.scored, ""],
+  ["could not be read", data.totals.failed, ""],
+  ["high", data.totals.byBand.high || 0, "band-high"],
+  ["elevated", data.totals.byBand.elevated || 0, "band-elevated"],
+  ["low", data.totals.byBand.low || 0, "band-low"],
+];
+for (const [label, n, cls] of tileList) {
+  const d = el("div", { class: "tile" });
+  d.appendChild(el("b", { class: cls }, String(n)));
+  d.appendChild(document.createTextNode(label));
+  tiles.appendChild(d);
+}
+
+/** Histogram: 20 bins over [0, 1], each bar stacked by the bands of the apps in it. */
+function drawHistogram(): void {
+  const order = ["low", "elevated", "high"] as const;
+  type Band = (typeof order)[number];
+  const bins: Record<Band, number>[] = [];
+  for (let k = 0; k < 20; k++) bins.push({ low: 0, elevated: 0, high: 0 });
+  for (const r of data.rows) if (r.risk != null) bins[Math.min(19, Math.floor(r.risk * 20))][(r.band as Band) || "low"]++;
+  const totals = bins.map((b) => b.low + b.elevated + b.high);
+  const max = Math.max(...totals, 1);
+  const W = 740, H = 200, L = 40, R = 30, B = 28, bw = (W - L - R) / 20;
+  const cut = data.cutPoints || {};
+  const colour: Record<Band, string> = { low: "#4f7f5a", elevated: "#c28a1e", high: "#b23a3a" };
+  let svg = `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" width="100%" style="max-width:${W}px">`;
+  for (let i = 0; i < 20; i++) {
+    let y = H - B;
+    const x = L + i * bw;
+    for (const band of order) {
+      const n = bins[i][band];
+      if (!n) continue;
+      const h = ((H - B - 10) * n) / max;
+      y -= h;
+      svg += `<rect x="${(x + 1).toFixed(1)}" y="${y.toFixed(1)}" width="${(bw - 2).toFixed(1)}" height="${h.toFixed(1)}" fill="${colour[band]}"><title>${i * 5}–${i * 5 + 5}%: ${n} ${band}</title></rect>`;
+    }
+  }
+  for (const b of ["elevated", "high"] as const) {
+    const at = cut[b];
+    if (at == null) continue;
+    const cx = L + at * 20 * bw;
+    svg += `<line x1="${cx.toFixed(1)}" y1="8" x2="${cx.toFixed(1)}" y2="${H - B}" stroke="${colour[b]}" stroke-dasharray="4 3"/>`;
+  }
+  svg += `<line x1="${L}" y1="${H - B}" x2="${W - R}" y2="${H - B}" stroke="#5d6875"/>`;
+  for (let t = 0; t <= 10; t += 2) svg += `<text x="${L + t * 2 * bw}" y="${H - 10}" text-anchor="middle">${t * 10}%</text>`;
+  svg += `<text x="${L - 6}" y="16" text-anchor="end">${max}</text><text x="${L - 6}" y="${H - B}" text-anchor="end">0</text>`;
+  svg += "</svg>";
+  byId("histogram").innerHTML = svg;
+  let legend = "Risk estimate (x) and number of apps (y); dashed lines mark where the bands begin.";
+  if (cut.elevated != null) legend += ` Elevated from ${pct(cut.elevated)};`;
+  if (cut.high != null) legend += ` high from ${pct(cut.high)}.`;
+  if (data.baseRate != null) legend += ` Base rate of the labeled corpus: ${pct(data.baseRate)}.`;
+  byId("histogram-legend").textContent = legend;
+}
+drawHistogram();
+
+// Table: sorting, filtering, expandable rows.
+const categoryFilter = byId<HTMLSelectElement>("f-category");
+for (const c of [...new Set(data.rows.map((r) => r.category).filter((c): c is string => !!c))].sort()) categoryFilter.appendChild(el("option", { value: c }, c));
+categoryFilter.appendChild(el("option", { value: "(pooled)" }, "(no category: pooled)"));
+const checkFilter = byId<HTMLSelectElement>("f-check");
+for (const c of data.checks) checkFilter.appendChild(el("option", { value: c.id }, c.id));
+const bandFilter = byId<HTMLSelectElement>("f-band");
+const textFilter = byId<HTMLInputElement>("f-text");
+
+const state = { key: "risk", dir: -1 };
+function sortValue(r: PageRow, key: string): string | number {
+  switch (key) {
+    case "app": return (r.package || r.id).toLowerCase();
+    case "category": return r.category || "";
+    case "risk": return r.risk == null ? -1 : r.risk;
+    case "band": return ({ high: 3, elevated: 2, low: 1 } as Record<string, number>)[r.band ?? ""] || 0;
+    case "warnings": return r.counts ? r.counts.warning + 100 * r.counts.error : -1;
+    case "notes": return r.counts ? r.counts.note : -1;
+    default: return 0;
+  }
+}
+
+const tbody = document.querySelector("#apps tbody")!;
+function render(): void {
+  const cat = categoryFilter.value, band = bandFilter.value, check = checkFilter.value, text = textFilter.value.toLowerCase();
+  const rows = data.rows.filter((r) => {
+    if (cat && (cat === "(pooled)" ? r.category : r.category !== cat)) return false;
+    if (band && (band === "failed" ? r.status !== "failed" : r.band !== band)) return false;
+    if (check && !r.findings.some((f) => f.checkId === check)) return false;
+    if (text && (r.package || "").toLowerCase().indexOf(text) < 0 && r.id.toLowerCase().indexOf(text) < 0) return false;
+    return true;
+  });
+  rows.sort((a, b) => {
+    const x = sortValue(a, state.key), y = sortValue(b, state.key);
+    return x < y ? -state.dir : x > y ? state.dir : a.id < b.id ? -1 : 1;
+  });
+  tbody.textContent = "";
+  for (const r of rows) {
+    const tr = el("tr", { class: "app", tabindex: "0", "data-id": r.id });
+    const app = el("td");
+    app.appendChild(el("div", null, r.package || "(unreadable)"));
+    app.appendChild(el("div", { class: "legend" }, r.id));
+    tr.appendChild(app);
+    tr.appendChild(el("td", null, r.category || (r.status === "failed" ? "" : "pooled")));
+    tr.appendChild(el("td", { class: "num" }, pct(r.risk)));
+    const b = el("td");
+    b.appendChild(el("span", { class: `pill ${r.status === "failed" ? "failed" : r.band || ""}` }, r.status === "failed" ? "failed" : r.band || "—"));
+    tr.appendChild(b);
+    tr.appendChild(el("td", { class: "num" }, r.counts ? String(r.counts.warning + r.counts.error) : "—"));
+    tr.appendChild(el("td", { class: "num" }, r.counts ? String(r.counts.note) : "—"));
+    const details = el("tr", { class: "details", hidden: "" });
+    const td = el("td", { colspan: "6" });
+    if (r.error) td.appendChild(el("div", { class: "lvl-error" }, `Could not be read: ${r.error}`));
+    if (r.findings.length) {
+      const ul = el("ul");
+      for (const f of r.findings) {
+        const li = el("li");
+        li.appendChild(el("span", { class: `lvl-${f.level}` }, `${f.level} `));
+        li.appendChild(document.createTextNode(`${short(f.subject)} — ${f.checkId}`));
+        ul.appendChild(li);
+      }
+      td.appendChild(ul);
+    } else if (!r.error) td.appendChild(el("div", null, "No findings."));
+    if (r.whatIf.length) {
+      td.appendChild(el("div", { class: "legend" }, "Without one permission:"));
+      const ul2 = el("ul");
+      for (const w of r.whatIf) ul2.appendChild(el("li", null, `${short(w.permission)}: ${pct(r.risk)} → ${pct(w.without)}`));
+      td.appendChild(ul2);
+    }
+    details.appendChild(td);
+    const toggle = () => (details.hasAttribute("hidden") ? details.removeAttribute("hidden") : details.setAttribute("hidden", ""));
+    tr.addEventListener("click", toggle);
+    tr.addEventListener("keydown", (e) => {
+      if (e.key === "Enter" || e.key === " ") {
+        e.preventDefault();
+        toggle();
+      }
+    });
+    tbody.appendChild(tr);
+    tbody.appendChild(details);
+  }
+  byId("shown").textContent = `${rows.length} of ${data.rows.length} shown`;
+}
+document.querySelectorAll<HTMLElement>("#apps th").forEach((th) => {
+  th.addEventListener("click", () => {
+    const key = th.getAttribute("data-key") ?? "risk";
+    state.dir = state.key === key ? -state.dir : key === "app" || key === "category" ? 1 : -1;
+    state.key = key;
+    document.querySelectorAll("#apps th").forEach((o) => o.setAttribute("aria-sort", "none"));
+    th.setAttribute("aria-sort", state.dir > 0 ? "ascending" : "descending");
+    render();
+  });
+});
+for (const f of [categoryFilter, bandFilter, checkFilter]) f.addEventListener("change", render);
+textFilter.addEventListener("input", render);
+render();
+
+/** Heatmap: sweep share vs baseline share per category, shaded by how far the sweep exceeds the baseline. */
+function drawHeatmap(): void {
+  const h = data.heatmap;
+  const box = byId("heatmap");
+  if (!h.permissions.length || !h.categories.length) {
+    box.appendChild(el("p", { class: "legend" }, "No permission was flagged as uncommon for a category."));
+    return;
+  }
+  const t = el("table", { class: "heat" });
+  const head = el("tr");
+  head.appendChild(el("th", null, "Permission (times flagged)"));
+  for (const c of h.categories) head.appendChild(el("th", null, c));
+  const thead = el("thead");
+  thead.appendChild(head);
+  t.appendChild(thead);
+  const body = el("tbody");
+  h.permissions.forEach((p, i) => {
+    const tr = el("tr");
+    tr.appendChild(el("th", null, `${short(p)} (${h.flaggedCounts[i]})`));
+    for (const c of h.cells[i]) {
+      const excess = Math.max(0, Math.min(1, (c.sweep - c.baseline) * 4));
+      const td = el("td", { title: `swept: ${pct(c.sweep)} of ${c.sweepN} · baseline: ${pct(c.baseline)} of ${c.baselineN}` });
+      td.style.background = `rgba(178, 58, 58, ${(0.08 + 0.6 * excess).toFixed(2)})`;
+      td.appendChild(el("div", null, pct(c.sweep)));
+      td.appendChild(el("div", { class: "legend" }, pct(c.baseline)));
+      tr.appendChild(td);
+    }
+    body.appendChild(tr);
+  });
+  t.appendChild(body);
+  box.appendChild(t);
+}
+drawHeatmap();

@@ -1,0 +1,116 @@
+/**
+ * The sweep's HTML report: one self-contained file (no network: data, styles, script and charts inline).
+ * A histogram of risk with the bands, a sortable and filterable table of apps whose rows expand to their
+ * findings and what-if figures, and a heatmap of the permissions the sweep flagged most, by category,
+ * against the baseline. The page's script and styles are real files (page/), compiled and inlined at build
+ * time; this formatter only fills in the data.
+ */
+import type { Heatmap } from "../../score/heatmap.js";
+import { CHECKS } from "../../score/registry.js";
+import type { AppRow } from "../../score/row.js";
+import { TOOL_VERSION } from "../../version.js";
+import { SWEEP_PAGE_CSS, SWEEP_PAGE_SCRIPT } from "./generated/page-assets.js";
+import type { PageData } from "./page-data.js";
+
+export interface SweepReportInput {
+  /** Every row of the sweep, in a stable order. */
+  rows: readonly AppRow[];
+  totals: { inputs: number; scored: number; failed: number; byBand: Record<string, number> };
+  heatmap: Heatmap;
+  baselineName: string;
+  caution: string;
+  cutPoints?: { elevated?: number; high?: number };
+  baseRate?: number;
+  title?: string;
+}
+
+/** JSON for a `<script type="application/json">` element: nothing in it can end the element. */
+function safeJson(value: unknown): string {
+  return JSON.stringify(value).replace(/</g, "\\u003c").replace(/\u2028/g, "\\u2028").replace(/\u2029/g, "\\u2029");
+}
+
+/** Script text for a `<script>` element: `</script` inside it would end the element early. */
+function inlineScript(js: string): string {
+  return js.replace(/<\/(script)/gi, "<\\/$1");
+}
+
+function esc(s: string): string {
+  return s.replace(/[&<>"]/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;" })[c]!);
+}
+
+export function sweepToHtml(input: SweepReportInput): string {
+  const data: PageData = {
+    tool: `overask ${TOOL_VERSION}`,
+    baseline: input.baselineName,
+    caution: input.caution,
+    cutPoints: input.cutPoints ?? {},
+    baseRate: input.baseRate ?? null,
+    checks: CHECKS.map((c) => ({ id: c.meta.id, title: c.meta.title })),
+    rows: input.rows.map((r) => ({
+      id: r.id,
+      package: r.package ?? null,
+      category: r.category ?? null,
+      fallback: r.fallback ?? null,
+      risk: r.risk ?? null,
+      band: r.band ?? null,
+      status: r.status,
+      counts: r.counts ?? null,
+      findings: r.findings ?? [],
+      whatIf: r.whatIf ?? [],
+      error: r.error?.message ?? null,
+    })),
+    heatmap: input.heatmap,
+    totals: input.totals,
+  };
+  const title = input.title ?? "overask sweep report";
+  return `<!doctype html>
+<html lang="en">
+<head>
+<meta charset="utf-8">
+<meta name="viewport" content="width=device-width, initial-scale=1">
+<title>${esc(title)}</title>
+<style>
+${SWEEP_PAGE_CSS}</style>
+</head>
+<body>
+<h1>${esc(title)}</h1>
+<div class="meta" id="meta"></div>
+<div class="caution" id="caution"></div>
+<div class="tiles" id="tiles"></div>
+
+<h2>Risk across the inventory</h2>
+<div id="histogram" role="img" aria-label="Histogram of the risk estimates, coloured by band"></div>
+<div class="legend" id="histogram-legend"></div>
+
+<h2>Apps</h2>
+<div class="filters">
+  <label>Category <select id="f-category"><option value="">all</option></select></label>
+  <label>Band <select id="f-band"><option value="">all</option><option>high</option><option>elevated</option><option>low</option><option value="failed">could not be read</option></select></label>
+  <label>Check <select id="f-check"><option value="">any</option></select></label>
+  <label>Search <input type="search" id="f-text" placeholder="package or file"></label>
+  <span class="legend" id="shown"></span>
+</div>
+<table id="apps">
+  <thead><tr>
+    <th data-key="app" aria-sort="none">App</th>
+    <th data-key="category" aria-sort="none">Category</th>
+    <th data-key="risk" aria-sort="descending">Risk</th>
+    <th data-key="band" aria-sort="none">Band</th>
+    <th data-key="warnings" aria-sort="none">Warnings</th>
+    <th data-key="notes" aria-sort="none">Notes</th>
+  </tr></thead>
+  <tbody></tbody>
+</table>
+<p class="legend noprint">Click a row for its findings and for what removing a permission would do to its risk.</p>
+
+<h2>Permissions flagged most, by category</h2>
+<p class="legend">Each cell: share of swept apps of the category requesting the permission, and below it the share in the baseline. Darker: requested more often than the baseline would suggest.</p>
+<div id="heatmap"></div>
+
+<script type="application/json" id="data">${safeJson(data)}</script>
+<script>
+${inlineScript(SWEEP_PAGE_SCRIPT)}</script>
+</body>
+</html>
+`;
+}

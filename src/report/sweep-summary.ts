@@ -1,0 +1,29 @@
+/** The few lines `sweep` prints when it is done. */
+import { wrap } from "./style.js";
+
+export interface SweepTotals {
+  inputs: number;
+  skipped: number;
+  scored: number;
+  failed: number;
+  byBand: Record<string, number>;
+  top: { id: string; package?: string; risk: number; band?: string }[];
+  shard?: { index: number; count: number };
+  output: string;
+  html?: string;
+  caution?: string;
+}
+
+export function sweepSummaryText(s: SweepTotals): string {
+  const out: string[] = [];
+  out.push(`Swept ${s.inputs} inputs${s.shard ? ` (shard ${s.shard.index}/${s.shard.count})` : ""}: ${s.scored} scored, ${s.failed} could not be read${s.skipped ? `, ${s.skipped} kept from the earlier run` : ""}.`);
+  const bands = ["high", "elevated", "low"].filter((b) => s.byBand[b]).map((b) => `${s.byBand[b]} ${b}`);
+  if (bands.length) out.push(`Risk bands: ${bands.join(", ")}.`);
+  if (s.top.length) {
+    out.push("Highest risks:");
+    for (const t of s.top.slice(0, 10)) out.push(`  ${(100 * t.risk).toFixed(0).padStart(3)}%  ${t.package ?? ""}  ${t.id}`);
+  }
+  out.push(`Results: ${s.output}${s.html ? `\nReport:  ${s.html}` : ""}`);
+  if (s.caution) out.push(...wrap(s.caution, 80, 0));
+  return `${out.join("\n")}\n`;
+}

@@ -1,0 +1,66 @@
+/**
+ * One app's result as a flat row: what a sweep writes per input (JSONL, CSV) and what the sweep report
+ * shows. Built from a judgement; an input that could not be read is a failed row with its error.
+ * `id` is the input's path as listed, stable across runs; `size` and `mtimeMs` identify its content for
+ * `--resume`.
+ */
+import { requestedPermissionNames } from "../extract/manifest/model.js";
+import type { CheckResult } from "./judge.js";
+import type { Level } from "./types.js";
+
+export const ROW_SCHEMA_VERSION = 1;
+
+/** What identifies an input across runs. */
+export interface RowKey {
+  id: string;
+  size: number;
+  mtimeMs: number;
+}
+
+export interface AppRow extends RowKey {
+  status: "scored" | "failed";
+  package?: string;
+  versionName?: string;
+  versionCode?: number;
+  category?: string;
+  fallback?: string;
+  risk?: number;
+  band?: string;
+  counts?: Record<Level, number>;
+  findings?: { checkId: string; level: Level; subject: string }[];
+  whatIf?: { permission: string; without: number }[];
+  permissions?: string[];
+  error?: { kind: string; message: string };
+}
+
+/** The row of a judged app. */
+export function rowOf(key: RowKey, r: CheckResult): AppRow {
+  const m = r.manifest;
+  const counts: Record<Level, number> = { error: 0, warning: 0, note: 0 };
+  for (const f of r.findings) counts[f.level]++;
+  const row: AppRow = {
+    id: key.id,
+    size: key.size,
+    mtimeMs: key.mtimeMs,
+    status: "scored",
+    package: m.package,
+    ...(m.versionName !== undefined ? { versionName: m.versionName } : {}),
+    ...(m.versionCode !== undefined ? { versionCode: m.versionCode } : {}),
+    ...(r.category.category ? { category: r.category.category } : {}),
+    ...(r.category.fallback ? { fallback: r.category.fallback } : {}),
+    counts,
+    findings: r.findings.map((f) => ({ checkId: f.checkId, level: f.level, subject: f.subject })),
+    permissions: requestedPermissionNames(m).sort(),
+  };
+  if (r.risk) {
+    row.risk = r.risk.probability;
+    row.band = r.risk.band;
+    row.whatIf = r.risk.whatIf.filter((w) => w.change < 0).slice(0, 5).map((w) => ({ permission: w.permission, without: w.without }));
+  }
+  return row;
+}
+
+/** The row of an input that could not be read. */
+export function failedRow(key: RowKey, error: { kind: string; message: string }): AppRow {
+  return { id: key.id, size: key.size, mtimeMs: key.mtimeMs, status: "failed", error };
+}
