@@ -11,6 +11,7 @@ import { brierScore } from "./stats/brier.js";
 import { calibrationTable, type CalibrationBin } from "./stats/calibration.js";
 import { fitLogistic, type LogisticFit } from "./stats/logistic.js";
 import { rocAuc } from "./stats/roc-auc.js";
+import { shuffleInPlace } from "simple-statistics";
 import { seededRandom, type Random } from "../util/random.js";
 
 export interface TrainingRow {
@@ -99,11 +100,8 @@ export function fitMonotone(
 export function stratifiedFolds(labels: readonly number[], k: number, rand: Random): number[] {
   const fold = new Array<number>(labels.length);
   for (const cls of [0, 1]) {
-    const idx = labels.map((l, i) => (l === cls ? i : -1)).filter((i) => i >= 0);
-    for (let i = idx.length - 1; i > 0; i--) {
-      const j = Math.floor(rand() * (i + 1));
-      [idx[i], idx[j]] = [idx[j], idx[i]];
-    }
+    // Fisher–Yates with the seeded source (simple-statistics' shuffleInPlace).
+    const idx = shuffleInPlace(labels.map((l, i) => (l === cls ? i : -1)).filter((i) => i >= 0), rand);
     idx.forEach((row, i) => (fold[row] = i % k));
   }
   return fold;
@@ -116,7 +114,9 @@ function predictRow(fit: LogisticFit, kept: number[], features: number[]): numbe
 }
 
 function quantile(sorted: number[], q: number): number {
-  // Linear interpolation between order statistics (type 7, the common default).
+  // Linear interpolation between order statistics (Hyndman & Fan type 7, the common default). Not
+  // simple-statistics' quantileSorted, which takes a nearest order statistic (or the mean of two): the
+  // deciles stored in baselines are type 7.
   const h = (sorted.length - 1) * q;
   const lo = Math.floor(h);
   return sorted[lo] + (h - lo) * ((sorted[Math.min(lo + 1, sorted.length - 1)] ?? sorted[lo]) - sorted[lo]);

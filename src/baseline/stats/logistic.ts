@@ -13,6 +13,7 @@
  *   classifier we need through the library's own serialized form (`LogisticRegression.load` with one
  *   classifier), halving the cost, and read probabilities from `testScores`.
  */
+import { mean, standardDeviation } from "simple-statistics";
 import LogisticRegression from "ml-logistic-regression";
 import { Matrix } from "ml-matrix";
 
@@ -59,11 +60,15 @@ export function fitLogistic(X: number[][], y: number[], options: LogisticOptions
   const maxSteps = Math.max(firstSteps, options.maxSteps ?? 25_600);
   const tolerance = options.tolerance ?? 1e-4;
   const p = X[0].length;
-  const means = new Array<number>(p).fill(0);
-  const scales = new Array<number>(p).fill(0);
-  for (const row of X) for (let j = 0; j < p; j++) means[j] += row[j] / n;
-  for (const row of X) for (let j = 0; j < p; j++) scales[j] += (row[j] - means[j]) ** 2 / n;
-  for (let j = 0; j < p; j++) scales[j] = scales[j] > 0 ? Math.sqrt(scales[j]) : 1;
+  // Column means and population standard deviations (simple-statistics; compensated sums).
+  const means = new Array<number>(p);
+  const scales = new Array<number>(p);
+  for (let j = 0; j < p; j++) {
+    const column = X.map((row) => row[j]);
+    means[j] = mean(column);
+    const sd = standardDeviation(column);
+    scales[j] = sd > 0 ? sd : 1;
+  }
 
   const Z = new Matrix(n, p + 1);
   for (let i = 0; i < n; i++) {

@@ -9,6 +9,7 @@
  *
  * @example shrinkToward(3, 10, 0.5, 10) // → 0.4   ((3 + 5) / 20)
  */
+import { sampleVariance } from "simple-statistics";
 export function shrinkToward(k: number, n: number, pooled: number, strength: number): number {
   if (n < 0 || k < 0 || k > n || pooled < 0 || pooled > 1 || strength < 0) {
     throw new RangeError(`shrinkToward needs 0 ≤ k ≤ n, 0 ≤ pooled ≤ 1, strength ≥ 0 (k=${k}, n=${n}, pooled=${pooled}, strength=${strength})`);
@@ -35,8 +36,7 @@ export function empiricalBayesStrength(groups: { k: number; n: number }[], maxSt
   const p = K / N;
   if (p === 0 || p === 1) return maxStrength;
   const rates = used.map((g) => g.k / g.n);
-  const mean = rates.reduce((s, r) => s + r, 0) / rates.length;
-  const s2 = rates.reduce((s, r) => s + (r - mean) ** 2, 0) / (rates.length - 1); // sample variance
+  const s2 = sampleVariance(rates); // n − 1 in the denominator
   const noise = p * (1 - p) * (used.reduce((s, g) => s + 1 / g.n, 0) / used.length);
   const tau2 = s2 - noise;
   if (tau2 <= 0) return maxStrength;
