@@ -1,12 +1,12 @@
 import AdmZip from "adm-zip";
 import { describe, expect, it } from "vitest";
-import { BinaryXmlError, LimitError } from "../../src/errors.js";
-import { decodeBinaryXml } from "../../src/extract/binary/binary-xml.js";
-import { ByteReader } from "../../src/extract/binary/reader.js";
-import { StringPool, readChunkHeader } from "../../src/extract/binary/chunks.js";
-import { readManifestBytes } from "../../src/extract/index.js";
-import { chunksOf, endElement, resourceMap, startElement, stringPool, tinyManifest, u16, u32, xmlDocument } from "../helpers/axml.js";
-import { APK_DIR } from "../helpers/paths.js";
+import { BinaryXmlError, LimitError } from "../../../src/errors.js";
+import { decodeBinaryXml } from "../../../src/extract/binary/binary-xml.js";
+import { ByteReader } from "../../../src/extract/binary/reader.js";
+import { StringPool, readChunkHeader } from "../../../src/extract/binary/chunks.js";
+import { readManifestBytes } from "../../../src/extract/index.js";
+import { chunksOf, endElement, resourceMap, startElement, stringPool, tinyManifest, u16, u32, xmlDocument } from "../../helpers/axml.js";
+import { APK_DIR } from "../../helpers/paths.js";
 
 const realManifest = (variant: string) => new AdmZip(`${APK_DIR}${variant}.apk`).getEntry("AndroidManifest.xml")!.getData();
 

@@ -6,13 +6,13 @@
 import { readFileSync } from "node:fs";
 import AdmZip from "adm-zip";
 import { describe, expect, it } from "vitest";
-import { InputError, ProtoXmlError } from "../../src/errors.js";
-import { decodeProtoXml } from "../../src/extract/proto/proto-xml.js";
-import { readManifestBytes } from "../../src/extract/index.js";
-import { readManifestFile } from "../../src/ops/read-manifest.js";
-import type { Manifest } from "../../src/extract/manifest/model.js";
-import { diffAgainstDump, parsePermissionsDump, readXmltree } from "../helpers/aapt-dump.js";
-import { DUMP_DIR, FIXTURES } from "../helpers/paths.js";
+import { InputError, ProtoXmlError } from "../../../src/errors.js";
+import { decodeProtoXml } from "../../../src/extract/proto/proto-xml.js";
+import { readManifestBytes } from "../../../src/extract/index.js";
+import { readManifestFile } from "../../../src/ops/read-manifest.js";
+import type { Manifest } from "../../../src/extract/manifest/model.js";
+import { diffAgainstDump, parsePermissionsDump, readXmltree } from "../../helpers/aapt-dump.js";
+import { DUMP_DIR, FIXTURES } from "../../helpers/paths.js";
 
 const B = `${FIXTURES}bundle/`;
 
@@ -98,7 +98,7 @@ describe("multi-APK archives", () => {
 
 describe("every command takes bundles and multi-APK archives", () => {
   it("check judges the bundle with its feature module's permissions", async () => {
-    const { cli } = await import("../helpers/cli.js");
+    const { cli } = await import("../../helpers/cli.js");
     const { code, stdout } = await cli(["check", "--format", "json", "-c", "TOOLS", `${B}tidewatch.aab`, `${B}tidewatch-splits.apks`]);
     expect(code).toBe(0);
     const [aab, apks] = JSON.parse(stdout).results;

@@ -8,8 +8,8 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { chromium, type BrowserContext } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { cli } from "../helpers/cli.js";
-import { FIXTURES, ROOT } from "../helpers/paths.js";
+import { cli } from "../../helpers/cli.js";
+import { FIXTURES, ROOT } from "../../helpers/paths.js";
 
 const CHROMIUM = "/usr/bin/chromium";
 const hasChromium = existsSync(CHROMIUM);
