@@ -105,6 +105,7 @@ const COVERED_ELSEWHERE: Record<string, string> = {
   "baseline/model-risk.ts": "test/score/risk.test.ts",
   "score/judge.ts": "test/score/checks/exported-unguarded.test.ts",
   "score/types.ts": "types only",
+  "score/heatmap-types.ts": "types only",
   "score/checks/rate-findings.ts": "test/score/checks/uncommon-for-category.test.ts",
   "score/merge-report.ts": "test/score/trim/plan.test.ts",
   "score/trim/patch.ts": "test/score/trim/plan.test.ts",

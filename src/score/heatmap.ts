@@ -5,25 +5,10 @@
  */
 import type { Baseline } from "../baseline/rates.js";
 import { checkIdsTagged } from "./registry.js";
+import type { Heatmap } from "./heatmap-types.js";
 import type { AppRow } from "./row.js";
 
-export interface HeatmapCell {
-  /** Share of the swept apps of the category that request the permission, and how many apps that is of. */
-  sweep: number;
-  sweepN: number;
-  /** The baseline's raw share for the category (k / n), and its n. */
-  baseline: number;
-  baselineN: number;
-}
-
-export interface Heatmap {
-  permissions: string[];
-  categories: string[];
-  /** cells[i][j]: permission i, category j. */
-  cells: HeatmapCell[][];
-  /** How many apps were flagged for each permission. */
-  flaggedCounts: number[];
-}
+export type { Heatmap, HeatmapCell } from "./heatmap-types.js";
 
 /** Apps judged against all categories pooled get a column of their own. */
 export const POOLED_COLUMN = "(pooled)";

@@ -9,6 +9,7 @@ import { closeSync, existsSync, openSync, writeSync } from "node:fs";
 import { OutputError } from "../../errors.js";
 import { csvHeader } from "../../report/csv.js";
 import { sweepToHtml } from "../../report/html/sweep-report.js";
+import type { SweepTotals } from "../../report/sweep-summary.js";
 import { heatmapData } from "../../score/heatmap.js";
 import type { JudgeOptions } from "../../score/judge.js";
 import type { AppRow } from "../../score/row.js";
@@ -34,18 +35,8 @@ export interface SweepOptions {
   onProgress?: (done: number, total: number) => void;
 }
 
-export interface SweepSummary {
-  inputs: number;
-  skipped: number;
-  scored: number;
-  failed: number;
-  byBand: Record<string, number>;
-  top: { id: string; package?: string; risk: number; band?: string }[];
-  shard?: { index: number; count: number };
-  output: string;
-  html?: string;
-  /** The baseline's risk caution, when it has a model. */
-  caution?: string;
+/** What a sweep did: the totals the summary prints, and every row of its output on demand. */
+export interface SweepSummary extends SweepTotals {
   /** Every row of the final output, read back on demand (CSV rows carry the summary columns only). */
   rows(): AppRow[];
 }
@@ -58,7 +49,7 @@ class Tally {
   scored = 0;
   failed = 0;
   readonly byBand: Record<string, number> = {};
-  readonly top: SweepSummary["top"] = [];
+  readonly top: SweepTotals["top"] = [];
   add(r: Omit<ScoredLine, "line">): void {
     if (r.status === "scored") this.scored++;
     else this.failed++;

@@ -1,4 +1,5 @@
 /** The data the sweep report's page script reads (embedded as JSON in the page). Types only. */
+import type { Heatmap } from "../../score/heatmap-types.js";
 
 export interface PageFinding {
   checkId: string;
@@ -18,20 +19,6 @@ export interface PageRow {
   findings: PageFinding[];
   whatIf: { permission: string; without: number }[];
   error: string | null;
-}
-
-export interface HeatmapCell {
-  sweep: number;
-  sweepN: number;
-  baseline: number;
-  baselineN: number;
-}
-
-export interface Heatmap {
-  permissions: string[];
-  categories: string[];
-  cells: HeatmapCell[][];
-  flaggedCounts: number[];
 }
 
 export interface PageData {

@@ -1,0 +1,19 @@
+/** The heatmap's shape, in a module of its own with no imports, so that the report page's browser code can share it. */
+
+export interface HeatmapCell {
+  /** Share of the swept apps of the category that request the permission, and how many apps that is of. */
+  sweep: number;
+  sweepN: number;
+  /** The baseline's raw share for the category (k / n), and its n. */
+  baseline: number;
+  baselineN: number;
+}
+
+export interface Heatmap {
+  permissions: string[];
+  categories: string[];
+  /** cells[i][j]: permission i, category j. */
+  cells: HeatmapCell[][];
+  /** How many apps were flagged for each permission. */
+  flaggedCounts: number[];
+}
