@@ -50,6 +50,8 @@ build2 chirpchat chirpchat --warn-manifest-validation
 build1 flashdeck flashdeck
 build2 townsquare townsquare
 build2 townsquare townsquare-nons --no-xml-namespaces
+build2 snapshare snapshare
+build2 beamtorch beamtorch
 
 # App bundle layout and multi-APK archive, from the same demo manifests.
 mkdir -p fixtures/bundle
@@ -75,6 +77,8 @@ with zipfile.ZipFile(f"{out}/tidewatch-splits.apks", "w") as apks:
     apks.write(base_apk, "base.apk", zipfile.ZIP_STORED)
     apks.write(f"{work}/tidewatch-ar.apk", "split_tide_ar.apk", zipfile.ZIP_STORED)
 PY
+# The proto build as it comes out of aapt2: an APK-shaped zip whose manifest is protobuf XML.
+cp "$WORK/tidewatch-proto.zip" fixtures/bundle/tidewatch-proto.apk
 unzip -o -q -d "$WORK/twp" "$WORK/tidewatch-proto.zip" AndroidManifest.xml
 cp "$WORK/twp/AndroidManifest.xml" fixtures/bundle/tidewatch-proto-AndroidManifest.pb
 aapt dump permissions "$WORK/tidewatch-ar.apk" > "$DUMPS/tidewatch-ar.permissions.txt"

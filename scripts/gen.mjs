@@ -2,6 +2,7 @@
 // Build step: turns the data files and browser assets the runtime needs into TypeScript modules, so that
 // nothing under src/ reads a file at run time (the library works without a package folder, e.g. bundled).
 //   src/platform/data/android-platform-permissions.tsv → src/platform/generated/permission-table.ts
+//   src/platform/data/{permission-added-in,permission-lineage,sensitivity}.tsv → src/platform/generated/
 //   src/extract/proto/resources.proto                   → src/extract/proto/generated/descriptor.ts
 //   src/report/html/page/*.{ts,css}                     → src/report/html/generated/page-assets.ts
 // The generated folders are not committed; `npm run build` and `npm run typecheck` write them.
@@ -31,6 +32,18 @@ writeIfChanged(
   "src/platform/generated/permission-table.ts",
   `${banner("src/platform/data/android-platform-permissions.tsv")}export const PERMISSION_TABLE_HEADER: readonly string[] = ${JSON.stringify(header)};\nexport const PERMISSION_TABLE_ROWS: readonly (readonly string[])[] = [\n${rows.map((r) => `  ${JSON.stringify(r)},`).join("\n")}\n];\n`,
 );
+
+// Smaller platform tables, each row with its source: rows of fields under their header.
+for (const [file, name] of [["permission-added-in", "ADDED_IN"], ["permission-lineage", "LINEAGE"], ["sensitivity", "SENSITIVITY"]]) {
+  const lines = readFileSync(`${root}src/platform/data/${file}.tsv`, "utf8").split(/\r?\n/).filter((l) => l !== "");
+  const head = lines[0].split("\t");
+  const body = lines.slice(1).map((l) => l.split("\t"));
+  for (const [i, r] of body.entries()) if (r.length !== head.length) throw new Error(`${file}.tsv line ${i + 2}: ${r.length} columns, header has ${head.length}`);
+  writeIfChanged(
+    `src/platform/generated/${file}.ts`,
+    `${banner(`src/platform/data/${file}.tsv`)}export const ${name}_HEADER: readonly string[] = ${JSON.stringify(head)};\nexport const ${name}_ROWS: readonly (readonly string[])[] = [\n${body.map((r) => `  ${JSON.stringify(r)},`).join("\n")}\n];\n`,
+  );
+}
 
 const proto = protobuf.parse(readFileSync(root + "src/extract/proto/resources.proto", "utf8"), { keepCase: true }).root;
 writeIfChanged(

@@ -7,6 +7,7 @@ import { BaselineError } from "../errors.js";
 import { PLATFORM_TABLE_VERSION } from "../platform/permissions.js";
 import { TOOL_VERSION } from "../version.js";
 import { CountTable, type SerializedCounts } from "./counts.js";
+import { corpusEra, type BaselineEra } from "./era.js";
 import type { RiskModel } from "./model.js";
 import { Baseline, type RateParameters } from "./rates.js";
 
@@ -47,6 +48,8 @@ export interface BaselineFile {
   parameters: RateParameters & { aliases: Record<string, string> };
   provenance: { inputs: InputProvenance[]; notes: string[] };
   counts: SerializedCounts;
+  /** The newest platform level the corpus speaks for (absent in files written before it was kept: computed on load). */
+  era?: BaselineEra;
   model: StoredModel | null;
   caution: string;
 }
@@ -88,7 +91,8 @@ export function parseBaselineFile(text: string, path: string): BaselineFile {
 /** The rates view of a baseline file. */
 export function baselineOf(file: BaselineFile): Baseline {
   const { aliases, ...parameters } = file.parameters;
-  return new Baseline(CountTable.fromJSON(file.counts), parameters, new Map(Object.entries(aliases ?? {})));
+  const counts = CountTable.fromJSON(file.counts);
+  return new Baseline(counts, parameters, new Map(Object.entries(aliases ?? {})), file.era?.api ?? corpusEra(counts).api);
 }
 
 /** Serializes a baseline file the same way every time (stable key order from the writers). */
@@ -117,6 +121,7 @@ export function foldBaselines(files: { path: string; file: BaselineFile }[], cre
       parameters: first.file.parameters,
       provenance: { inputs: files.flatMap((f) => f.file.provenance.inputs), notes },
       counts: table.toJSON(),
+      era: corpusEra(table, [...new Set(files.map((f) => f.file.era?.years).filter((y): y is string => !!y))].join(", ") || undefined),
       model: null,
     },
     createdAt,

@@ -6,6 +6,7 @@
  * CCS 2012).
  */
 import { isSensitive } from "../platform/sensitivity.js";
+import { frequencyBasis } from "./era.js";
 import type { Baseline, Exclusion } from "./rates.js";
 
 /**
@@ -39,8 +40,16 @@ export interface PermissionTerms {
   terms: Record<FeatureName, number>;
 }
 
+/**
+ * The feature terms of one requested permission. Under the era rule (baseline/era.ts) a permission newer
+ * than the corpus is rated by the predecessor it took over from, and one with no predecessor (or one that
+ * made an old behaviour explicit) adds nothing: absence from an older corpus is not evidence. Sensitivity
+ * is always the requested permission's own.
+ */
 export function permissionTerms(baseline: Baseline, category: string | undefined, permission: string, exclude?: Exclusion): PermissionTerms {
-  const r = baseline.rate(category, permission, exclude);
+  const basis = frequencyBasis(baseline, category, permission);
+  if (basis.kind !== "own" && basis.kind !== "predecessor") return { permission, terms: { commonOther: 0, commonSensitive: 0, uncommonOther: 0, uncommonSensitive: 0, anyUncommonSensitive: 0, surprisal: 0 } };
+  const r = baseline.rate(category, basis.basis, exclude);
   const sensitive = isSensitive(permission);
   return {
     permission,

@@ -6,6 +6,7 @@ import { CorpusError } from "../errors.js";
 import { seededRandom } from "../util/random.js";
 import { newBaselineFile, type BaselineFile, type InputProvenance, type StoredModel } from "./baseline-file.js";
 import { CountTable } from "./counts.js";
+import { corpusEra } from "./era.js";
 import { openCorpus, type CorpusOptions, type CorpusRecord, type CorpusReport, type CorpusSource } from "./corpus/index.js";
 import { isDangerous } from "../platform/sensitivity.js";
 import { appFeatures, FEATURE_NAMES } from "./features.js";
@@ -19,6 +20,8 @@ export interface LearnOptions {
   labels?: { source: CorpusSource; options: CorpusOptions; licence?: string };
   /** How risk statements name the labeled corpus (default: its path). */
   labelsName?: string;
+  /** When the frequency corpus's apps were collected (e.g. "2020"), recorded with the era. */
+  corpusYears?: string;
   parameters?: Partial<RateParameters>;
   aliases?: Map<string, string>;
   /** The run fails when a corpus rejects more than this share of its rows. */
@@ -131,7 +134,9 @@ export async function learn(options: LearnOptions): Promise<LearnResult> {
     labelLicence = options.frequencies.find((f) => f.source.name === labelReport?.source)?.licence;
   }
 
-  const baseline = new Baseline(counts, parameters);
+  // The era rule applies in training as in judging: features of permissions newer than the corpus use the same rule.
+  const era = corpusEra(counts, options.corpusYears);
+  const baseline = new Baseline(counts, parameters, new Map(), era.api);
   let model: StoredModel | null = null;
   let noModel: string | undefined;
   const { rows: picked, of } = sample.rows();
@@ -183,6 +188,7 @@ export async function learn(options: LearnOptions): Promise<LearnResult> {
       parameters: { ...parameters, aliases: Object.fromEntries([...aliases].sort()) },
       provenance: { inputs, notes },
       counts: counts.toJSON(),
+      era,
       model,
     },
     options.createdAt,

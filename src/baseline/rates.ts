@@ -65,6 +65,8 @@ export class Baseline {
     readonly parameters: RateParameters = DEFAULT_RATE_PARAMETERS,
     /** Category aliases the baseline was learned with (source name → baseline name). */
     readonly aliases: ReadonlyMap<string, string> = new Map(),
+    /** The newest API level the corpus speaks for (baseline/era.ts); undefined: no era rule. */
+    readonly era?: number,
   ) {}
 
   /** The category whose counts apply to `category`, or the reason the pooled ones do. */

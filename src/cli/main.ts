@@ -54,6 +54,7 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
     .option("--labels <file>", "separate labeled corpus for the risk model (same field options)")
     .option("--labels-licence <text>", "licence of the labeled corpus")
     .option("--labels-name <text>", "how risk statements name the labeled corpus (default: its path)")
+    .option("--corpus-years <years>", "when the frequency corpus's apps were collected (e.g. 2020), recorded with the baseline's era")
     .option("--alias <from=to>", "category alias, e.g. Educational=Education (repeatable)", collectPairs)
     .addOption(new Option("--prior <method>", "shrinkage toward the pooled rate").choices(["fixed", "empirical-bayes"]).default("fixed"))
     .option("--prior-strength <n>", "fixed: pooled pseudo-apps per category; empirical-bayes: the cap", nonNegative, 10)

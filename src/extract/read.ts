@@ -7,7 +7,7 @@
 import { InputError, LimitError, withFile } from "../errors.js";
 import { LIMITS } from "../limits.js";
 import { decodeBinaryXml } from "./binary/binary-xml.js";
-import { fromApk, MANIFEST_ENTRY, RESOURCE_TABLE_ENTRY, type ReadOptions } from "./containers/apk.js";
+import { fromApk, MANIFEST_ENTRY, PROTO_RESOURCE_TABLE_ENTRY, RESOURCE_TABLE_ENTRY, type ReadOptions } from "./containers/apk.js";
 import { BUNDLE_MANIFEST, BUNDLE_RESOURCE_TABLE, fromBundle, isBundle } from "./containers/bundle.js";
 import { fromMultiApk, isMultiApk, NESTED_APK } from "./containers/multi-apk.js";
 import { openArchive, openArchiveBytes, type ArchiveReader, type RandomAccessSource } from "./containers/zip.js";
@@ -21,7 +21,7 @@ export type { ReadOptions } from "./containers/apk.js";
 
 /** The only entries a manifest reader needs; an APK's thousands of others are never parsed. */
 function wantedEntry(name: string): boolean {
-  return name === MANIFEST_ENTRY || name === RESOURCE_TABLE_ENTRY || name === BUNDLE_RESOURCE_TABLE || BUNDLE_MANIFEST.test(name) || NESTED_APK.test(name);
+  return name === MANIFEST_ENTRY || name === RESOURCE_TABLE_ENTRY || name === PROTO_RESOURCE_TABLE_ENTRY || name === BUNDLE_RESOURCE_TABLE || BUNDLE_MANIFEST.test(name) || NESTED_APK.test(name);
 }
 
 /** Reads a manifest from bytes in memory. `label` names the input in errors. */

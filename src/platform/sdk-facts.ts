@@ -26,7 +26,7 @@ const FACTS: NoEffectFact[] = [
     fromTarget: 30,
     unlessMaxSdkAtMost: 29,
     instead: [],
-    why: "scoped storage: from targetSdk 30 this permission grants no write access",
+    why: "scoped storage: it gives an app targeting 30 or higher no write access",
     source: "from memory: Android 11 storage behaviour changes (developer documentation)",
   },
   {
@@ -34,7 +34,7 @@ const FACTS: NoEffectFact[] = [
     fromTarget: 33,
     unlessMaxSdkAtMost: 32,
     instead: [P("READ_MEDIA_IMAGES"), P("READ_MEDIA_VIDEO"), P("READ_MEDIA_AUDIO")],
-    why: "from targetSdk 33 media access is granted by the READ_MEDIA_* permissions instead",
+    why: "the READ_MEDIA_* permissions give media access instead",
     source: 'platform table: READ_MEDIA_AUDIO/VIDEO/IMAGES "enforced starting in API level TIRAMISU" (33)',
   },
   ...["READ_MEDIA_IMAGES", "READ_MEDIA_VIDEO", "READ_MEDIA_AUDIO"].map((name) => ({
@@ -55,7 +55,7 @@ const FACTS: NoEffectFact[] = [
     fromTarget: 31,
     unlessMaxSdkAtMost: 30,
     instead: [P("BLUETOOTH_CONNECT"), P("BLUETOOTH_SCAN"), P("BLUETOOTH_ADVERTISE")],
-    why: "from targetSdk 31 Bluetooth access is granted by BLUETOOTH_CONNECT, _SCAN and _ADVERTISE",
+    why: "BLUETOOTH_CONNECT, _SCAN and _ADVERTISE give Bluetooth access instead",
     source: "from memory: Android 12 Bluetooth permissions (developer documentation)",
   },
   {
@@ -63,10 +63,19 @@ const FACTS: NoEffectFact[] = [
     fromTarget: 31,
     unlessMaxSdkAtMost: 30,
     instead: [P("BLUETOOTH_CONNECT"), P("BLUETOOTH_SCAN"), P("BLUETOOTH_ADVERTISE")],
-    why: "from targetSdk 31 Bluetooth access is granted by BLUETOOTH_CONNECT, _SCAN and _ADVERTISE",
+    why: "BLUETOOTH_CONNECT, _SCAN and _ADVERTISE give Bluetooth access instead",
     source: "from memory: Android 12 Bluetooth permissions (developer documentation)",
   },
 ];
+
+/**
+ * What a permission the platform flags `removed` is, said the same way by `facts` and `check`: the
+ * framework manifest still defines it (so it is not "unknown"), with permissionFlags="removed", and grants
+ * it to no one (platform table, API 34; FLASHLIGHT is one: the torch API needs no permission).
+ */
+export const REMOVED_PERMISSION_NOTE = "kept by the platform for compatibility only (flagged removed): it grants nothing";
+/** The same statement, for a table column. */
+export const REMOVED_PERMISSION_SHORT = "compatibility only: grants nothing";
 
 let table: Map<string, NoEffectFact> | undefined;
 
@@ -76,11 +85,21 @@ export function noEffectFacts(): ReadonlyMap<string, NoEffectFact> {
     table = new Map(FACTS.map((f) => [f.permission, f]));
     for (const p of platformPermissions().values()) {
       if (p.removed && !table.has(p.name)) {
-        table.set(p.name, { permission: p.name, why: "the platform keeps this name only for compatibility; it grants nothing", source: 'platform table: permissionFlags "removed"' });
+        table.set(p.name, { permission: p.name, why: REMOVED_PERMISSION_NOTE, source: 'platform table: permissionFlags "removed"' });
       }
     }
   }
   return table;
+}
+
+/**
+ * Where a request still does something although the app's target makes it useless on newer devices: a
+ * `fromTarget` fact (from API N the platform ignores the permission for apps targeting N+) still applies
+ * on devices older than N, which an app with minSdk below N runs on.
+ */
+export function stillUsedBelow(f: NoEffectFact, minSdk: number | undefined): number | undefined {
+  if (f.fromTarget === undefined) return undefined;
+  return (minSdk ?? 1) < f.fromTarget ? f.fromTarget : undefined;
 }
 
 /** The fact that makes `permission` useless at `targetSdk` with `maxSdkVersion`, if any. */

@@ -1,15 +1,39 @@
 /**
- * Which platform permissions are sensitive, and which a store app can hold at all. These rules are used by
- * the checks, the risk model's features, record scoring and trim: they live here once.
+ * Which platform permissions are sensitive, what each gives access to, and which a store app can hold at
+ * all. The sensitive set is data (src/platform/data/sensitivity.tsv: a reason per entry, documented in
+ * docs/checks/sensitive-uncommon.md); these rules are used by the checks, the risk model's features,
+ * record scoring and trim, and live here once.
  */
+import { SENSITIVITY_HEADER, SENSITIVITY_ROWS } from "./generated/sensitivity.js";
 import { platformPermission } from "./permissions.js";
 import type { BaseLevel } from "./protection.js";
+import { rowsOf } from "./tables.js";
 
-/** Dangerous, app-op, or hard/soft-restricted on the platform (API 34 table). */
+export interface Sensitivity {
+  sensitive: boolean;
+  /** One plain sentence of what the permission gives the app. */
+  gives: string;
+  /** Why it is, or is not, counted as sensitive. */
+  reason: string;
+}
+
+let table: Map<string, Sensitivity> | undefined;
+
+/** The sensitivity row of a platform permission (every dangerous, app-op or restricted one has one). */
+export function sensitivityOf(permission: string): Sensitivity | undefined {
+  table ??= new Map(rowsOf(SENSITIVITY_HEADER, SENSITIVITY_ROWS).map((r) => [r.permission, { sensitive: r.sensitive === "yes", gives: r.gives, reason: r.reason }]));
+  return table.get(permission);
+}
+
+/** Every row of the sensitivity table. */
+export function sensitivityTable(): ReadonlyMap<string, Sensitivity> {
+  sensitivityOf("");
+  return table!;
+}
+
+/** Sensitive: marked so in the sensitivity table (dangerous, app-op and restricted permissions, less the harmless ones). */
 export function isSensitive(permission: string): boolean {
-  const p = platformPermission(permission);
-  if (!p) return false;
-  return p.base === "dangerous" || p.flags.includes("appop") || p.hardRestricted || p.softRestricted;
+  return sensitivityOf(permission)?.sensitive ?? false;
 }
 
 /** Dangerous on the platform (a runtime permission the user is asked for). */

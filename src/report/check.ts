@@ -2,7 +2,7 @@
  * Formatters for `overask check`: text for a person, JSON for machines (docs/check-json.md).
  * Pure functions from results to strings.
  */
-import type { CheckResult } from "../score/judge.js";
+import type { CheckResult, NotJudged } from "../score/judge.js";
 import type { CategoryChoice } from "../score/category.js";
 import { checkById } from "../score/registry.js";
 import type { RiskEstimate } from "../score/risk.js";
@@ -28,6 +28,18 @@ const short = (name: string) => name.replace(/^android\.permission\./, "");
 
 export function messageOf(f: Pick<Finding, "checkId" | "subject" | "data">): string {
   return checkById(f.checkId)?.message(f) ?? f.checkId;
+}
+
+/** The other reasons folded into a finding on the same permission, worded by their own checks. */
+export function alsoMessages(f: Finding): { checkId: string; level: string; message: string }[] {
+  return (f.also ?? []).map((a) => ({ checkId: a.checkId, level: a.level, message: messageOf({ checkId: a.checkId, subject: f.subject, data: a.data }) }));
+}
+
+/** Why a requested permission is not judged by frequency, in words. */
+export function notJudgedText(n: NotJudged, era: number | undefined): string {
+  if (n.why === "own-permission") return "declared by this app";
+  if (n.why === "made-explicit") return `not measured: added in API ${n.addedIn} to make explicit what every app could do before${n.note ? ` (${n.note})` : ""}, so older apps could not request it`;
+  return `newer than this baseline (added in API ${n.addedIn}; baseline era API ${era}): no frequency evidence`;
 }
 
 export function categoryText(c: CategoryChoice): string {
@@ -90,12 +102,14 @@ export function checkToText(runs: CheckRun[], info: CheckRunInfo, s: Style = PLA
       parts.push(`${s.alert("error")} ${run.file}: ${run.error?.message ?? "unreadable"}\n`);
       continue;
     }
-    const { manifest: m, category, findings, risk } = run.result;
+    const { manifest: m, category, findings, risk, notJudged, era } = run.result;
     const out: string[] = [];
     out.push(s.bold(m.label && m.labelSource !== "unresolved" ? `${m.package}  “${m.label}”` : m.package));
     out.push(...wrap(`  file        ${run.file}`, 80, 14));
     out.push(...wrap(`  category    ${categoryText(category)}`, 80, 14));
     out.push(...wrap(`  baseline    ${info.baseline}`, 80, 14));
+    if (era) out.push(`  era         API ${era.api}: what the baseline's apps could request`);
+    if (era?.targetNewer) out.push(...wrap(`  note        the app targets API ${m.targetSdk}, newer than the baseline's era (API ${era.api}): permissions added since are judged by what they replaced, or not at all`, 80, 14));
     out.push("");
     if (risk) out.push(...riskLines(risk, s), "");
     else out.push(s.dim("Risk  not estimated: the baseline has no risk model"), "");
@@ -105,6 +119,14 @@ export function checkToText(runs: CheckRun[], info: CheckRunInfo, s: Style = PLA
       const level = f.level === "error" ? s.alert(fit(f.level, 7)) : f.level === "warning" ? s.warn(fit(f.level, 7)) : fit(f.level, 7);
       out.push(`  ${level}  ${short(f.subject)}`);
       out.push(...wrap(`           ${messageOf(f)} [${f.checkId}]`, 80, 11).map((l) => s.dim(l)));
+      for (const a of alsoMessages(f)) out.push(...wrap(`           also: ${a.message} [${a.checkId}]`, 80, 11).map((l) => s.dim(l)));
+    }
+    if (notJudged.length) {
+      out.push("", s.bold(`Not judged by frequency (${notJudged.length})`));
+      for (const n of notJudged) {
+        out.push(`  ${short(n.permission)}`);
+        out.push(...wrap(`           ${notJudgedText(n, era?.api)}`, 80, 11).map((l) => s.dim(l)));
+      }
     }
     parts.push(`${out.join("\n")}\n`);
   }
@@ -122,7 +144,9 @@ export function checkToJson(runs: CheckRun[], info: CheckRunInfo): string {
       versionName: m.versionName,
       targetSdk: m.targetSdk,
       category,
-      findings: findings.map((f) => ({ ...f, message: messageOf(f) })),
+      ...(run.result.era ? { era: run.result.era } : {}),
+      findings: findings.map((f) => ({ ...f, message: messageOf(f), ...(f.also ? { also: alsoMessages(f).map((a, i) => ({ ...f.also![i], message: a.message })) } : {}) })),
+      notJudged: run.result.notJudged.map((n) => ({ ...n, message: notJudgedText(n, run.result!.era?.api) })),
       risk: risk ?? null,
     };
   });

@@ -2,6 +2,7 @@
  * Formatters for `overask facts`: pure functions from results to text.
  */
 import { MANIFEST_SCHEMA_VERSION, type Component, type Manifest, type RequestedPermission } from "../extract/manifest/model.js";
+import { REMOVED_PERMISSION_SHORT } from "../platform/sdk-facts.js";
 import { TOOL_VERSION } from "../version.js";
 import { PLAIN, fit, wrap, type Style } from "./style.js";
 
@@ -30,6 +31,7 @@ export function factsToText(results: FactsResult[], style: Style = PLAIN): strin
 function inputText(m: Manifest): string {
   const kind = {
     apk: "APK",
+    "proto-apk": "proto-format APK",
     "app-bundle": "app bundle",
     "multi-apk": "multi-APK archive",
     "binary-xml": "binary manifest",
@@ -47,7 +49,7 @@ function permissionNotes(p: RequestedPermission): string {
   if (f.origin === "other") notes.push(f.unknownPlatformName ? "not defined by the platform" : "not a platform permission");
   if (f.hardRestricted) notes.push("hard-restricted");
   if (f.softRestricted) notes.push("soft-restricted");
-  if (f.removed) notes.push("removed from the platform");
+  if (f.removed) notes.push(REMOVED_PERMISSION_SHORT);
   else if (f.docNote) notes.push(f.docNote);
   if (f.flags?.includes("appop")) notes.push("appop");
   if (f.flags?.includes("privileged")) notes.push("privileged");

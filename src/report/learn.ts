@@ -23,6 +23,10 @@ export function baselineSummary(file: BaselineFile, outPath: string, s: Style = 
     out.push(`  ${fit(name, 28)} ${String(g.apps).padStart(7)} apps${pooled ? s.warn(`  below ${file.parameters.minSupport}: uses the pooled baseline`) : ""}`);
   }
   const p = file.parameters;
+  if (file.era) {
+    const e = file.era;
+    out.push("", ...wrap(`  era: API ${e.api}${e.years ? ` (apps of ${e.years})` : ""}${e.permission ? `, the newest level among permissions with real support (${e.permission.replace(/^android\.permission\./, "")}, ${e.apps} apps)` : ""}; newer permissions are judged by what they replaced, or not at all`, 80, 4));
+  }
   out.push("", `  rates shrink toward the pooled rate (${p.prior.method === "fixed" ? `${p.prior.strength} pooled pseudo-apps` : `empirical-Bayes strength, capped at ${p.prior.strength}`}); uncommon: the ${pct(p.confidence)} Wilson interval lies below ${pct(p.uncommonBelow)}`);
   const m = file.model;
   if (!m) out.push("", s.bold("Risk model"), "  none: " + (file.provenance.notes[0] ?? "no labeled corpus"));

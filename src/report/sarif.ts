@@ -6,7 +6,7 @@
 import type { Log, Result, ReportingDescriptor } from "sarif";
 import { CHECKS } from "../score/registry.js";
 import { TOOL_VERSION } from "../version.js";
-import { messageOf, type CheckRun, type CheckRunInfo } from "./check.js";
+import { alsoMessages, messageOf, type CheckRun, type CheckRunInfo } from "./check.js";
 
 export function checkToSarif(runs: CheckRun[], info: CheckRunInfo): string {
   const rules: ReportingDescriptor[] = CHECKS.map((c) => ({
@@ -29,7 +29,7 @@ export function checkToSarif(runs: CheckRun[], info: CheckRunInfo): string {
         ruleId: f.checkId,
         ruleIndex: CHECKS.findIndex((c) => c.meta.id === f.checkId),
         level: f.level,
-        message: { text: `${f.subject}: ${messageOf(f)}` },
+        message: { text: [`${f.subject}: ${messageOf(f)}`, ...alsoMessages(f).map((a) => `Also: ${a.message}`)].join(" ") },
         locations: [{ physicalLocation: physical, logicalLocations: [{ fullyQualifiedName: f.location.path, kind: "element" }] }],
         properties: { package: m.package, subject: f.subject },
       });

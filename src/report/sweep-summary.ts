@@ -4,6 +4,8 @@ import { wrap } from "./style.js";
 export interface SweepTotals {
   inputs: number;
   skipped: number;
+  /** .xml files in the folder passed over because their root element is not <manifest>. */
+  notManifests?: number;
   scored: number;
   failed: number;
   byBand: Record<string, number>;
@@ -17,6 +19,7 @@ export interface SweepTotals {
 export function sweepSummaryText(s: SweepTotals): string {
   const out: string[] = [];
   out.push(`Swept ${s.inputs} inputs${s.shard ? ` (shard ${s.shard.index}/${s.shard.count})` : ""}: ${s.scored} scored, ${s.failed} could not be read${s.skipped ? `, ${s.skipped} kept from the earlier run` : ""}.`);
+  if (s.notManifests) out.push(`Passed over ${s.notManifests} .xml file${s.notManifests === 1 ? "" : "s"} that are not manifests (resource files).`);
   const bands = ["high", "elevated", "low"].filter((b) => s.byBand[b]).map((b) => `${s.byBand[b]} ${b}`);
   if (bands.length) out.push(`Risk bands: ${bands.join(", ")}.`);
   if (s.top.length) {

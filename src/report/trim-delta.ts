@@ -22,6 +22,7 @@ export function trimToText(plan: TrimPlan, file: string, caution: string | undef
     const risk = plan.risk !== undefined && c.riskWithout !== undefined ? `  risk ${pct(plan.risk)} → ${pct(c.riskWithout)}` : "";
     out.push(`${String(i + 1).padStart(3)}. ${s.bold(short(c.permission))}${risk}`);
     out.push(...wrap(`     why: ${c.reasons.map((r) => r.checkId).join(", ")}`, 80, 10).map((l) => s.dim(l)));
+    if (c.safe) out.push(...wrap(`     safe because ${c.safe}`, 80, 10).map((l) => s.dim(l)));
     if (c.libraries?.length) out.push(...wrap(`     added by ${c.libraries.join(", ")}`, 80, 10));
     const how =
       c.action.kind === "limit"
@@ -34,6 +35,10 @@ export function trimToText(plan: TrimPlan, file: string, caution: string | undef
     out.push(...wrap(how, 80, 5));
     out.push(`       ${snippetFor(c)}`);
   });
+  if (plan.kept.length) {
+    out.push("", s.bold("Flagged, but kept: the manifest shows the app needs them"));
+    for (const k of plan.kept) out.push(...wrap(`  ${short(k.permission)}: ${k.why}`, 80, 4));
+  }
   if (plan.typos.length) {
     out.push("", s.bold("Fix, do not remove"));
     for (const t of plan.typos) out.push(...wrap(`  ${t.permission} → ${t.nearest} (a likely typo: the app does not get the permission it meant)`, 80, 4));

@@ -7,14 +7,29 @@ import { baselineOf } from "../baseline/baseline-file.js";
 import type { Baseline, PermissionRate } from "../baseline/rates.js";
 import { requestedPermissionNames, type Manifest } from "../extract/manifest/model.js";
 import { chooseCategory, type CategoryChoice } from "./category.js";
-import { CHECKS } from "./registry.js";
+import { isOwnPermission, judgeFrequency } from "./frequency.js";
+import { CHECKS, checkIdsTagged } from "./registry.js";
 import { RiskScorer, type RiskEstimate } from "./risk.js";
 import { levelRank, type Finding, type Level } from "./types.js";
+
+/** A requested permission that frequency does not judge, and why. */
+export interface NotJudged {
+  permission: string;
+  why: "own-permission" | "made-explicit" | "no-evidence";
+  /** The API level that added it (made-explicit, no-evidence). */
+  addedIn?: number;
+  /** What the lineage table says it made explicit. */
+  note?: string;
+}
 
 export interface CheckResult {
   manifest: Manifest;
   category: CategoryChoice;
   findings: Finding[];
+  /** Requested permissions frequency does not judge: the app's own, and those newer than the baseline's era. */
+  notJudged: NotJudged[];
+  /** The baseline's era, and whether the app targets a newer platform than the corpus could speak for. */
+  era?: { api: number; targetNewer: boolean };
   risk?: RiskEstimate;
 }
 
@@ -45,16 +60,53 @@ export class Judge {
 
   judge(manifest: Manifest, options: JudgeOptions = {}): CheckResult {
     const category = chooseCategory(manifest, this.baseline, { category: options.category, index: options.categoryIndex });
-    const ctx = { manifest, baseline: this.baseline, category, rate: (p: string) => this.rate(category.category ?? category.requested, p) };
-    const findings: Finding[] = [];
+    const rateCategory = category.category ?? category.requested;
+    const rate = (p: string) => this.rate(rateCategory, p);
+    const ctx = { manifest, baseline: this.baseline, category, rate, frequency: (p: string) => judgeFrequency(manifest, this.baseline, category.category, p, rate) };
+    const raw: Finding[] = [];
     for (const check of CHECKS) {
       const level = options.levels?.get(check.meta.id) ?? check.meta.defaultLevel;
       if (level === "off") continue;
-      for (const f of check.run(ctx)) findings.push({ checkId: check.meta.id, level, ...f });
+      for (const f of check.run(ctx)) raw.push({ checkId: check.meta.id, level, ...f });
     }
+    const findings = foldByPermission(raw);
     findings.sort((a, b) => levelRank(b.level) - levelRank(a.level) || a.checkId.localeCompare(b.checkId) || a.subject.localeCompare(b.subject));
-    const result: CheckResult = { manifest, category, findings };
-    if (this.scorer) result.risk = this.scorer.estimate(category.category, requestedPermissionNames(manifest));
+    const requested = requestedPermissionNames(manifest);
+    const notJudged: NotJudged[] = [];
+    for (const p of requested) {
+      const j = ctx.frequency(p);
+      if (j.kind === "own-permission") notJudged.push({ permission: p, why: "own-permission" });
+      else if (j.kind === "made-explicit") notJudged.push({ permission: p, why: "made-explicit", addedIn: j.addedIn, note: j.lineage.note });
+      else if (j.kind === "no-evidence") notJudged.push({ permission: p, why: "no-evidence", addedIn: j.addedIn });
+    }
+    const result: CheckResult = { manifest, category, findings, notJudged };
+    if (this.baseline.era !== undefined) result.era = { api: this.baseline.era, targetNewer: (manifest.targetSdk ?? 0) > this.baseline.era };
+    // The app's own permissions say nothing about it against other apps: the risk leaves them out too.
+    if (this.scorer) result.risk = this.scorer.estimate(category.category, requested.filter((p) => !isOwnPermission(manifest, p)));
     return result;
   }
 }
+
+/**
+ * One finding a permission: where several permission checks report the same requested permission (for
+ * example uncommon for the category and without effect at the target SDK), the most severe finding keeps
+ * the others' reasons in `also`. Component findings are left as they are.
+ */
+function foldByPermission(findings: Finding[]): Finding[] {
+  const permissionChecks = checkIdsTagged("trim");
+  const out: Finding[] = [];
+  const byPermission = new Map<string, Finding[]>();
+  for (const f of findings) {
+    if (!permissionChecks.has(f.checkId)) out.push(f);
+    else byPermission.set(f.subject, [...(byPermission.get(f.subject) ?? []), f]);
+  }
+  for (const group of byPermission.values()) {
+    // Most severe first; at the same level, the order of CHECKS (a stable, documented order).
+    group.sort((a, b) => levelRank(b.level) - levelRank(a.level) || CHECK_ORDER.indexOf(a.checkId) - CHECK_ORDER.indexOf(b.checkId));
+    const [first, ...rest] = group;
+    out.push(rest.length ? { ...first, also: rest.map((r) => ({ checkId: r.checkId, level: r.level, data: r.data })) } : first);
+  }
+  return out;
+}
+
+const CHECK_ORDER = CHECKS.map((c) => c.meta.id);

@@ -1,23 +1,31 @@
 /** Every check, sorted by id. A test keeps this list, the docs pages and the tests in step. */
+import { backgroundLocationAlone } from "./checks/background-location-alone.js";
+import { exportedMissing } from "./checks/exported-missing.js";
 import { exportedUnguarded } from "./checks/exported-unguarded.js";
 import { noEffectAtTarget } from "./checks/no-effect-at-target.js";
 import { sensitiveUncommon } from "./checks/sensitive-uncommon.js";
+import { serviceTypePermission } from "./checks/service-type-permission.js";
 import { specialAccessComponent } from "./checks/special-access-component.js";
 import { uncommonForCategory } from "./checks/uncommon-for-category.js";
 import { ungrantablePermission } from "./checks/ungrantable-permission.js";
 import { unknownPermission } from "./checks/unknown-permission.js";
 import { weakCustomPermission } from "./checks/weak-custom-permission.js";
+import { weakGuard } from "./checks/weak-guard.js";
 import type { Check, CheckTag } from "./types.js";
 
 export const CHECKS: readonly Check[] = [
+  backgroundLocationAlone,
+  exportedMissing,
   exportedUnguarded,
   noEffectAtTarget,
   sensitiveUncommon,
+  serviceTypePermission,
   specialAccessComponent,
   uncommonForCategory,
   ungrantablePermission,
   unknownPermission,
   weakCustomPermission,
+  weakGuard,
 ];
 
 export function checkById(id: string): Check | undefined {

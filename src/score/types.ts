@@ -5,6 +5,7 @@
 import type { Baseline, PermissionRate } from "../baseline/rates.js";
 import type { Manifest, SourceLocation } from "../extract/manifest/model.js";
 import type { CategoryChoice } from "./category.js";
+import type { FrequencyJudgement } from "./frequency.js";
 
 /** SARIF's levels, most severe first. */
 export const LEVELS = ["error", "warning", "note"] as const;
@@ -41,6 +42,8 @@ export interface CheckContext {
   category: CategoryChoice;
   /** Memoized rate lookups for this app's category. */
   rate(permission: string): PermissionRate;
+  /** How a requested permission is judged by frequency (own permissions, era rule: score/frequency.ts). */
+  frequency(permission: string): FrequencyJudgement;
 }
 
 /** Data a finding carries; each check documents its own keys. */
@@ -53,6 +56,8 @@ export interface Finding {
   subject: string;
   location: SourceLocation;
   data: FindingData;
+  /** Other checks' findings on the same permission, folded into this one (one finding a permission). */
+  also?: { checkId: string; level: Level; data: FindingData }[];
 }
 
 export interface Check {

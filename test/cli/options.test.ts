@@ -28,6 +28,6 @@ describe("typed option parsers", () => {
   it("list the valid check ids when --level names an unknown one", async () => {
     const r = await cli(["check", "--level", "nosuch=off", "x.apk"]);
     expect(r.code).toBe(EXIT.USAGE);
-    expect(r.stderr).toMatch(/unknown check "nosuch"; the checks are exported-unguarded, .*weak-custom-permission/);
+    expect(r.stderr).toMatch(/unknown check "nosuch"; the checks are background-location-alone, .*weak-guard/);
   });
 });

@@ -21,7 +21,14 @@ export function judgeText(text: string, options: JudgeOptions = {}, judge = demo
   return judge.judge(readManifestBytes(new TextEncoder().encode(text), "AndroidManifest.xml"), options);
 }
 
-/** Findings of one check, as [subject, data] pairs. */
+/**
+ * Findings of one check, including those folded into another check's finding on the same permission
+ * (score/judge.ts keeps one finding a permission, the others' reasons in `also`).
+ */
 export function findingsOf(checkId: string, text: string, options: JudgeOptions = {}, judge = demoJudge) {
-  return judgeText(text, options, judge).findings.filter((f) => f.checkId === checkId);
+  return judgeText(text, options, judge).findings.flatMap((f) => {
+    if (f.checkId === checkId) return [f];
+    const a = f.also?.find((x) => x.checkId === checkId);
+    return a ? [{ ...f, checkId: a.checkId, level: a.level, data: a.data, also: undefined }] : [];
+  });
 }

@@ -35,7 +35,7 @@ const MIN_ATTRIBUTE_SIZE = 20;
 export function decodeBinaryXml(bytes: Uint8Array): XmlDocument {
   const r = new ByteReader(bytes, (m) => new BinaryXmlError(m));
   checkLimit("MAX_MANIFEST_BYTES", bytes.length, "binary XML has a size in bytes of");
-  if (!looksLikeBinaryXml(bytes)) throw new BinaryXmlError("not Android binary XML (no RES_XML_TYPE header)");
+  if (!looksLikeBinaryXml(bytes)) throw new BinaryXmlError("is not a compiled Android binary XML file (it lacks the binary XML header)");
   // The outer chunk may claim less than the file holds (trailing bytes are ignored, as by the platform),
   // but not more.
   const outer = readChunkHeader(r, 0, bytes.length, "XML");

@@ -115,7 +115,7 @@ export class StringPool {
       } else p += 1;
       checkLimit("MAX_STRING_LENGTH", len, `string ${index} declares a byte length of`);
       if (p + len > this.end) throw r.fail(`string ${index} declares ${len} bytes, past the end of the pool`);
-      return utf8Decoder.decode(r.bytes.subarray(p, p + len));
+      return decodeModifiedUtf8(r.bytes.subarray(p, p + len));
     }
     // UTF-16 entries: length in u16 units (one u16, or two when the high bit is set), then the units.
     let len = r.u16(p, "string length");
@@ -131,4 +131,32 @@ export class StringPool {
 }
 
 const utf8Decoder = new TextDecoder("utf-8", { fatal: false });
+
+/**
+ * UTF-8 string-pool entries as the toolchain writes them: aapt2 encodes a character outside the Basic
+ * Multilingual Plane (an emoji) as its two UTF-16 surrogates, each a 3-byte sequence (CESU-8, "modified
+ * UTF-8"), and the platform decodes them back to the one character. A standard UTF-8 decoder would give
+ * replacement characters, so surrogate sequences (ED A0–BF xx) are joined here; plain 4-byte UTF-8 is read
+ * as it is.
+ * @example decodeModifiedUtf8(Uint8Array.of(0xed, 0xa0, 0xbd, 0xed, 0xb3, 0xb6)) // → "📶" (U+1F4F6)
+ */
+export function decodeModifiedUtf8(bytes: Uint8Array): string {
+  let surrogates = false;
+  for (let i = 0; i + 1 < bytes.length; i++) if (bytes[i] === 0xed && bytes[i + 1] >= 0xa0) { surrogates = true; break; }
+  if (!surrogates) return utf8Decoder.decode(bytes);
+  // Decode each 3-byte surrogate sequence to its UTF-16 unit, the rest with the standard decoder.
+  let out = "";
+  let start = 0;
+  for (let i = 0; i + 2 < bytes.length; ) {
+    if (bytes[i] === 0xed && bytes[i + 1] >= 0xa0 && bytes[i + 1] <= 0xbf && (bytes[i + 2] & 0xc0) === 0x80) {
+      out += utf8Decoder.decode(bytes.subarray(start, i));
+      out += String.fromCharCode(0xd000 | ((bytes[i + 1] & 0x3f) << 6) | (bytes[i + 2] & 0x3f));
+      i += 3;
+      start = i;
+    } else i++;
+  }
+  out += utf8Decoder.decode(bytes.subarray(start));
+  // A lone surrogate (a damaged pair) is not text: replace it as a standard decoder would.
+  return out.replace(/[\ud800-\udbff](?![\udc00-\udfff])|(?<![\ud800-\udbff])[\udc00-\udfff]/g, "\ufffd");
+}
 const utf16Decoder = new TextDecoder("utf-16le", { fatal: false });

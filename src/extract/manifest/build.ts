@@ -2,6 +2,7 @@
  * Builds the Manifest model from an XML tree, whichever reader produced it. Binary input gives typed
  * values; plain input gives text. The helpers here read both the way the platform's package parser does.
  */
+import { serviceTypeNames } from "../../platform/foreground-services.js";
 import { ManifestError } from "../../errors.js";
 import { normalizePermissionName, platformPermission } from "../../platform/permissions.js";
 import { protectionFromInt, protectionFromText } from "../../platform/protection.js";
@@ -304,6 +305,14 @@ function readComponent(rd: Reader, el: XmlElement, kind: ComponentKind, pkg: str
   }
   const enabled = rd.bool(el, "enabled");
   if (enabled !== undefined) c.enabled = enabled;
+  if (kind === "service") {
+    // Compiled manifests hold the flags as an integer, source manifests as "camera|location".
+    const a = rd.attr(el, "foregroundServiceType");
+    if (a) {
+      const n = rd.int(el, "foregroundServiceType");
+      c.foregroundServiceType = serviceTypeNames(n ?? rd.string(el, "foregroundServiceType") ?? "");
+    }
+  }
   const exported = rd.bool(el, "exported");
   if (exported !== undefined) {
     c.exported = exported;

@@ -13,7 +13,7 @@ export interface SourceLocation {
   line?: number;
 }
 
-export type InputKind = "apk" | "app-bundle" | "multi-apk" | "binary-xml" | "proto-xml" | "plain-xml";
+export type InputKind = "apk" | "proto-apk" | "app-bundle" | "multi-apk" | "binary-xml" | "proto-xml" | "plain-xml";
 
 export interface InputInfo {
   kind: InputKind;
@@ -98,6 +98,8 @@ export interface Component {
   /** Why `effectiveExported` has its value. */
   exportedReason: "explicit" | "intent-filter-default" | "no-intent-filter" | "provider-legacy-default" | "missing-at-target-31";
   enabled?: boolean;
+  /** Services: the android:foregroundServiceType names (`camera`, `location` …). */
+  foregroundServiceType?: string[];
   intentFilters: IntentFilter[];
   source: SourceLocation;
 }

@@ -7,26 +7,64 @@ import { closeSync, openSync, readFileSync, readSync, readdirSync, statSync } fr
 import { join, relative, resolve, dirname, sep } from "node:path";
 import { splitCsvLine } from "../../util/csv.js";
 import { InputError } from "../../errors.js";
+import { decodeBinaryXml } from "../../extract/binary/binary-xml.js";
 import { DETECT_BYTES, detectKind } from "../../extract/detect.js";
 import { fnv1a32 } from "../../util/hash.js";
 import type { SweepInput } from "./rows.js";
 
-function head(path: string): Uint8Array {
+function head(path: string, bytes = DETECT_BYTES): Uint8Array {
   const fd = openSync(path, "r");
   try {
-    const b = Buffer.alloc(DETECT_BYTES);
-    const n = readSync(fd, b, 0, DETECT_BYTES, 0);
+    const b = Buffer.alloc(bytes);
+    const n = readSync(fd, b, 0, bytes, 0);
     return b.subarray(0, n);
   } finally {
     closeSync(fd);
   }
 }
 
-function walk(root: string, dir: string, out: SweepInput[]): void {
+/** How much of an XML file is read to find its root element. */
+const XML_PEEK_BYTES = 8192;
+
+/**
+ * Whether an .xml file found in a folder is plainly not a manifest: a source tree holds resource files
+ * (res/values/strings.xml, layouts) that are no apps. Plain XML whose root element is not <manifest>, or
+ * compiled XML whose root is not, is skipped; anything unclear is kept (and reported if it fails).
+ */
+export function plainlyNotManifest(path: string): boolean {
+  let bytes: Uint8Array;
+  try {
+    bytes = head(path, XML_PEEK_BYTES);
+  } catch {
+    return false;
+  }
+  const kind = detectKind(bytes.subarray(0, DETECT_BYTES));
+  if (kind === "plain-xml") {
+    const text = new TextDecoder().decode(bytes).replace(/<\?[\s\S]*?\?>|<!--[\s\S]*?-->|<!DOCTYPE[^>]*>/g, "");
+    const root = /<([A-Za-z_][\w:.-]*)/.exec(text);
+    return root !== null && root[1] !== "manifest";
+  }
+  if (kind === "binary-xml") {
+    try {
+      return decodeBinaryXml(readFileSync(path)).root.name !== "manifest";
+    } catch {
+      return false;
+    }
+  }
+  return false;
+}
+
+/** What a folder walk passed over. */
+export interface WalkReport {
+  /** .xml files whose root element is not <manifest>. */
+  notManifests: number;
+}
+
+function walk(root: string, dir: string, out: SweepInput[], report: WalkReport): void {
   for (const entry of readdirSync(dir, { withFileTypes: true }).sort((a, b) => (a.name < b.name ? -1 : 1))) {
     if (entry.name.startsWith(".")) continue;
     const path = join(dir, entry.name);
-    if (entry.isDirectory()) walk(root, path, out);
+    if (entry.isDirectory()) walk(root, path, out, report);
     else if (entry.isFile()) {
       // A folder holds other things too (notes, images). Files named like apps are taken as they are
       // (reading tells what they really are, and reports them if they are not); others only when their
@@ -39,6 +77,9 @@ function walk(root: string, dir: string, out: SweepInput[]): void {
           kind = "unknown";
         }
         if (kind === "unknown") continue;
+      } else if (/\.xml$/i.test(entry.name) && plainlyNotManifest(path)) {
+        report.notManifests++;
+        continue;
       }
       const st = statSync(path);
       out.push({ id: relative(root, path).split(sep).join("/"), file: path, size: st.size, mtimeMs: Math.round(st.mtimeMs) });
@@ -60,7 +101,7 @@ function fileInput(base: string, listed: string, category?: string): SweepInput 
   return { id: listed, file, size, mtimeMs, ...(category ? { category } : {}) };
 }
 
-export function listInputs(source: string): SweepInput[] {
+export function listInputs(source: string, report: WalkReport = { notManifests: 0 }): SweepInput[] {
   let st;
   try {
     st = statSync(source);
@@ -68,7 +109,7 @@ export function listInputs(source: string): SweepInput[] {
     throw new InputError("no such file or folder", { file: source });
   }
   const out: SweepInput[] = [];
-  if (st.isDirectory()) walk(source, source, out);
+  if (st.isDirectory()) walk(source, source, out, report);
   else {
     const base = dirname(source);
     const lines = readFileSync(source, "utf8").split(/\r?\n/).map((l) => l.trim()).filter((l) => l && !l.startsWith("#"));

@@ -66,7 +66,8 @@ class Tally {
 
 export async function sweep(options: SweepOptions): Promise<SweepSummary> {
   const { judge, baselinePath, baselineName } = loadJudge(options.baseline);
-  let inputs = listInputs(options.source);
+  const walked = { notManifests: 0 };
+  let inputs = listInputs(options.source, walked);
   if (options.shard) inputs = inputs.filter((i) => shardOf(i.id, options.shard!.count) === options.shard!.index - 1);
   const tally = new Tally();
   const kept = options.resume ? compactOutput(options.output, options.format, inputs, (r) => tally.add(r)) : new Set<string>();
@@ -105,6 +106,7 @@ export async function sweep(options: SweepOptions): Promise<SweepSummary> {
   const summary: SweepSummary = {
     inputs: inputs.length,
     skipped: kept.size,
+    notManifests: walked.notManifests,
     scored: tally.scored,
     failed: tally.failed,
     byBand: tally.byBand,

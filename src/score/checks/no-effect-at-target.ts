@@ -1,29 +1,40 @@
-/** no-effect-at-target: permissions that do nothing at the app's targetSdk. */
-import { noEffectAt } from "../../platform/sdk-facts.js";
+/**
+ * no-effect-at-target: permissions that do nothing at the app's targetSdk. A permission the platform
+ * replaced at API N still works on devices older than N: while minSdk is below N the request is limited
+ * with android:maxSdkVersion="N−1", not removed ("no effect" only when minSdk is already past the change).
+ */
+import { noEffectAt, stillUsedBelow } from "../../platform/sdk-facts.js";
 import type { Check } from "../types.js";
+
+const short = (n: string) => n.replace(/^android\.permission\./, "");
 
 export const noEffectAtTarget: Check = {
   meta: {
     id: "no-effect-at-target",
     title: "Permission with no effect at the target SDK",
-    description: "The request does nothing at the app's targetSdk (the platform replaced or removed the permission); it can be removed or limited with maxSdkVersion.",
+    description: "The request does nothing at the app's targetSdk on current devices (the platform replaced or removed the permission); remove it, or limit it with maxSdkVersion while older devices still use it.",
     docs: "docs/checks/no-effect-at-target.md",
     defaultLevel: "note",
     tags: ["trim"],
   },
   run(ctx) {
-    const target = ctx.manifest.targetSdk ?? ctx.manifest.minSdk ?? 1;
-    return ctx.manifest.usesPermissions.flatMap((p) => {
+    const m = ctx.manifest;
+    const target = m.targetSdk ?? m.minSdk ?? 1;
+    return m.usesPermissions.flatMap((p) => {
       if (p.removedByTools) return [];
       const fact = noEffectAt(p.name, target, p.maxSdkVersion);
       if (!fact) return [];
-      return [{ subject: p.name, location: p.source, data: { targetSdk: target, why: fact.why, instead: fact.instead, limitTo: fact.unlessMaxSdkAtMost, source: fact.source } }];
+      const below = stillUsedBelow(fact, m.minSdk);
+      const data = { targetSdk: target, minSdk: m.minSdk, why: fact.why, instead: fact.instead, source: fact.source, ...(below !== undefined ? { stillUsedBelow: below, limitTo: below - 1 } : {}) };
+      return [{ subject: p.name, location: p.source, data }];
     });
   },
   message(f) {
-    const d = f.data as { targetSdk: number; why: string; instead?: string[]; limitTo?: number };
-    const instead = d.instead?.length ? `; request ${d.instead.map((i) => i.replace(/^android\.permission\./, "")).join(" / ")} instead` : "";
-    const limit = d.limitTo !== undefined ? `; or keep it for older devices with android:maxSdkVersion="${d.limitTo}"` : "";
-    return `no effect at targetSdk ${d.targetSdk}: ${d.why}${instead}${limit}`;
+    const d = f.data as { targetSdk: number; minSdk?: number; why: string; instead?: string[]; stillUsedBelow?: number; limitTo?: number };
+    const instead = d.instead?.length ? `; request ${d.instead.map(short).join(" / ")} instead` : "";
+    if (d.stillUsedBelow !== undefined) {
+      return `no effect on Android API ${d.stillUsedBelow} and later at targetSdk ${d.targetSdk} (${d.why}); still used on devices from minSdk ${d.minSdk ?? 1} to API ${d.stillUsedBelow - 1}: limit it with android:maxSdkVersion="${d.limitTo}"`;
+    }
+    return `no effect at targetSdk ${d.targetSdk}: ${d.why}${instead}`;
   },
 };

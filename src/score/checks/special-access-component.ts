@@ -3,7 +3,13 @@ import type { Check } from "../types.js";
 
 /**
  * Binding permissions of services (and the device-admin receiver) through which the user grants an app
- * special access. Names from the platform table (API 34); what each grants, from memory of the docs.
+ * special access in settings, or picks it for a role. Names checked against the platform table (API 34,
+ * test/score/checks/special-access-component.test.ts); what each grants, from memory of the developer
+ * documentation of each service class (AccessibilityService, NotificationListenerService, DeviceAdminReceiver,
+ * VpnService, InputMethodService, AutofillService, VoiceInteractionService, CredentialProviderService,
+ * ConditionProviderService, InCallService, CallScreeningService, CallRedirectionService, QuickAccessWalletService).
+ * Carrier services are left out: only an app signed with the SIM carrier's certificate is bound, never one
+ * a user grants special access to.
  */
 export const SPECIAL_ACCESS: Record<string, string> = {
   "android.permission.BIND_ACCESSIBILITY_SERVICE": "an accessibility service: reads the screen and acts on the user's behalf",
@@ -15,9 +21,10 @@ export const SPECIAL_ACCESS: Record<string, string> = {
   "android.permission.BIND_INCALL_SERVICE": "an in-call service: manages phone calls",
   "android.permission.BIND_SCREENING_SERVICE": "a call screening service: sees and can block incoming calls",
   "android.permission.BIND_CALL_REDIRECTION_SERVICE": "a call redirection service: can reroute outgoing calls",
-  "android.permission.BIND_DEVICE_ADMIN_SERVICE": "a device-admin service",
-  "android.permission.BIND_QUICK_ACCESS_WALLET_SERVICE": "a wallet service on the lock screen",
-  "android.permission.BIND_CARRIER_SERVICES": "carrier services",
+  "android.permission.BIND_VOICE_INTERACTION": "a voice assistant: hears the user, sees the screen on request and acts across apps",
+  "android.permission.BIND_CREDENTIAL_PROVIDER_SERVICE": "a credential provider: stores and fills the user's passwords and passkeys",
+  "android.permission.BIND_CONDITION_PROVIDER_SERVICE": "a Do-Not-Disturb condition provider: switches Do Not Disturb on and off",
+  "android.permission.BIND_QUICK_ACCESS_WALLET_SERVICE": "a wallet service: shows payment cards on the lock screen",
 };
 
 export const specialAccessComponent: Check = {

@@ -1,4 +1,10 @@
-/** ungrantable-permission: signature, privileged or internal permissions a store app cannot be granted. */
+/**
+ * ungrantable-permission: signature, privileged or internal permissions a store app cannot be granted.
+ * Two flags open a way for a store app, and the message says so instead of "ignored" (platform table,
+ * API 34; meaning of the flags from memory of the platform's PermissionInfo documentation):
+ * `development` — the user (or a developer) can grant it over adb (`pm grant`); `role` — an app the user
+ * picks for a role (default SMS app, dialer, assistant, browser …) receives it.
+ */
 import { storeAppCanHold } from "../../platform/sensitivity.js";
 import type { Check } from "../types.js";
 
@@ -6,7 +12,7 @@ export const ungrantablePermission: Check = {
   meta: {
     id: "ungrantable-permission",
     title: "Permission a store app cannot be granted",
-    description: "The app requests a signature, privileged or internal platform permission, which only the platform itself or preinstalled apps can hold; the request grants nothing to a store app.",
+    description: "The app requests a signature, privileged or internal platform permission, which only the platform itself or preinstalled apps can hold, unless the user grants it over adb (development) or gives the app a system role (role).",
     docs: "docs/checks/ungrantable-permission.md",
     defaultLevel: "note",
     tags: ["trim"],
@@ -21,8 +27,17 @@ export const ungrantablePermission: Check = {
         seen.add(p.name);
         return true;
       })
-      .map((p) => ({ subject: p.name, location: p.source, data: { protectionLevel: p.facts.protectionLevel, role: p.facts.flags?.includes("role") ?? false } }));
+      .map((p) => ({
+        subject: p.name,
+        location: p.source,
+        data: { protectionLevel: p.facts.protectionLevel, role: p.facts.flags?.includes("role") ?? false, development: p.facts.flags?.includes("development") ?? false },
+      }));
   },
-  message: (f) =>
-    `protection level ${f.data.protectionLevel}: only the platform or preinstalled apps signed for it can hold this${f.data.role ? " (or an app given a matching system role)" : ""}; a store app's request is ignored`,
+  message(f) {
+    const ways: string[] = [];
+    if (f.data.role) ways.push("an app the user chooses for a matching system role (default SMS app, dialer, assistant …) receives it");
+    if (f.data.development) ways.push("the user can grant it over adb (pm grant), as for development");
+    const base = `protection level ${f.data.protectionLevel}: only the platform or apps preinstalled and signed for it hold this`;
+    return ways.length ? `${base}; otherwise ${ways.join("; and ")}. A store app gets it no other way` : `${base}; a store app's request is ignored`;
+  },
 };

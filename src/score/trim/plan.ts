@@ -5,6 +5,8 @@
 import { requestedPermissionNames, type Manifest, type RequestedPermission } from "../../extract/manifest/model.js";
 import type { CheckResult } from "../judge.js";
 import type { PermissionOrigin } from "../merge-report.js";
+import { serviceType } from "../../platform/foreground-services.js";
+import { isOwnPermission } from "../frequency.js";
 import { checkIdsTagged } from "../registry.js";
 import { levelRank, type Level } from "../types.js";
 
@@ -28,6 +30,8 @@ export interface TrimCandidate {
   /** Risk without this permission (when the baseline has a model). */
   riskWithout?: number;
   libraries?: string[];
+  /** Why removing (or limiting) it is safe, in words. */
+  safe: string;
 }
 
 export interface TrimPlan {
@@ -35,6 +39,8 @@ export interface TrimPlan {
   risk?: number;
   riskWithoutAll?: number;
   candidates: TrimCandidate[];
+  /** Flagged permissions trim leaves alone because the manifest shows the app needs them. */
+  kept: { permission: string; why: string }[];
   /** Likely typos: not trimmed, but to be fixed. */
   typos: { permission: string; nearest: string }[];
 }
@@ -52,8 +58,17 @@ export function planTrim(
   const byPermission = new Map<string, TrimCandidate>();
   const typos: TrimPlan["typos"] = [];
   const source = options.source ?? (m.input.kind === "plain-xml" ? m : undefined);
-  for (const f of result.findings) {
+  const needed = neededByManifest(m);
+  const kept = new Map<string, string>();
+  // Folded findings (score/judge.ts) carry other checks' reasons in `also`: each is a reason of its own here.
+  const all = result.findings.flatMap((f) => [f, ...(f.also ?? []).map((a) => ({ ...f, checkId: a.checkId, level: a.level, data: a.data }))]);
+  for (const f of all) {
     if (!TRIM_CHECKS.has(f.checkId)) continue;
+    const need = needed.get(f.subject);
+    if (need) {
+      kept.set(f.subject, need);
+      continue;
+    }
     if (f.checkId === "unknown-permission" && f.data.likelyTypo) {
       typos.push({ permission: f.subject, nearest: String(f.data.nearest) });
       continue;
@@ -63,7 +78,7 @@ export function planTrim(
     if (!c) {
       const origin = options.origins?.get(f.subject);
       const fromLibrary = origin ? origin.libraries.length > 0 && !origin.app && !element : source !== undefined && !element;
-      c = { permission: f.subject, reasons: [], action: fromLibrary ? { kind: "merge-remove" } : { kind: "delete" } };
+      c = { permission: f.subject, reasons: [], action: fromLibrary ? { kind: "merge-remove" } : { kind: "delete" }, safe: "" };
       if (element) c.element = element;
       if (origin?.libraries.length) c.libraries = origin.libraries;
       byPermission.set(f.subject, c);
@@ -74,6 +89,7 @@ export function planTrim(
     }
   }
   const candidates = [...byPermission.values()];
+  for (const c of candidates) c.safe = safety(c);
   const requested = requestedPermissionNames(m);
   if (options.riskWithout) {
     for (const c of candidates) c.riskWithout = options.riskWithout(requested.filter((p) => p !== c.permission));
@@ -85,7 +101,7 @@ export function planTrim(
       levelRank(b.reasons[0].level) - levelRank(a.reasons[0].level) ||
       a.permission.localeCompare(b.permission),
   );
-  const plan: TrimPlan = { package: m.package, candidates, typos };
+  const plan: TrimPlan = { package: m.package, candidates, kept: [...kept].map(([permission, why]) => ({ permission, why })).sort((a, b) => a.permission.localeCompare(b.permission)), typos };
   if (result.risk) {
     plan.risk = result.risk.probability;
     if (options.riskWithout && candidates.length) {
@@ -106,4 +122,40 @@ export function snippetFor(c: TrimCandidate): string {
     case "delete":
       return `<uses-permission android:name="${c.permission}" />`;
   }
+}
+
+const NOTIFICATIONS = "android.permission.POST_NOTIFICATIONS";
+
+/**
+ * Permissions the manifest itself shows the app needs, with why: the app's own, the foreground-service
+ * permissions its services' types require, any permission guarding one of its components, and
+ * POST_NOTIFICATIONS (nothing in a manifest shows that an app never notifies).
+ */
+export function neededByManifest(m: Manifest): Map<string, string> {
+  const needed = new Map<string, string>();
+  for (const p of requestedPermissionNames(m)) if (isOwnPermission(m, p)) needed.set(p, "the app's own permission");
+  for (const c of m.components) {
+    for (const g of [c.permission, c.readPermission, c.writePermission]) if (g) needed.set(g, `guards the app's own ${c.kind} ${c.name}`);
+    if (c.kind !== "service" || !c.foregroundServiceType?.length) continue;
+    needed.set("android.permission.FOREGROUND_SERVICE", `needed by the foreground service ${c.name}`);
+    for (const t of c.foregroundServiceType) {
+      const p = serviceType(t)?.permission;
+      if (p) needed.set(p, `needed by the ${t} foreground service ${c.name}`);
+    }
+  }
+  if (!needed.has(NOTIFICATIONS)) needed.set(NOTIFICATIONS, "nothing in the manifest shows the app never posts notifications");
+  return needed;
+}
+
+/** Why acting on a candidate is safe, from its reasons. */
+function safety(c: TrimCandidate): string {
+  const ids = new Set(c.reasons.map((r) => r.checkId));
+  const parts: string[] = [];
+  if (c.action.kind === "limit") parts.push("older devices keep it, and newer ones ignore it at this target");
+  else if (ids.has("no-effect-at-target")) parts.push("the platform ignores it at this target");
+  if (ids.has("ungrantable-permission")) parts.push("a store app is not granted it");
+  if (ids.has("background-location-alone")) parts.push("it grants nothing without foreground location");
+  if (ids.has("unknown-permission")) parts.push("the platform defines no such permission");
+  if (ids.has("sensitive-uncommon") || ids.has("uncommon-for-category")) parts.push("no component, service type or declaration in the manifest needs it (check the code before removing)");
+  return parts.join("; ");
 }

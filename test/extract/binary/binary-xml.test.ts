@@ -169,6 +169,6 @@ describe("decodeBinaryXml on malformed input", () => {
   });
 
   it("refuses text and random bytes", () => {
-    expect(() => decodeBinaryXml(new TextEncoder().encode("<manifest/>"))).toThrow(/not Android binary XML/);
+    expect(() => decodeBinaryXml(new TextEncoder().encode("<manifest/>"))).toThrow(/is not a compiled Android binary XML file/);
   });
 });

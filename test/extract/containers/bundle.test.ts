@@ -109,3 +109,14 @@ describe("every command takes bundles and multi-APK archives", () => {
     expect(apks.risk.whatIf.map((w: { permission: string }) => w.permission)).not.toContain("android.permission.CAMERA");
   });
 });
+
+describe("an APK-shaped zip with a protobuf manifest (aapt2 link --proto-format)", () => {
+  it("reads like the binary build of the same manifest", () => {
+    // fixtures/bundle/tidewatch-proto.apk: aapt2's --proto-format output; tidewatch.apk: the binary build of the same app.
+    const proto = readManifestFile(`${B}tidewatch-proto.apk`);
+    const binary = readManifestFile(`${FIXTURES}apk/tidewatch.apk`);
+    expect(proto.input.kind).toBe("proto-apk");
+    expect([proto.package, proto.versionCode, proto.label]).toEqual([binary.package, binary.versionCode, binary.label]);
+    expect(proto.usesPermissions.map((p) => p.name)).toEqual(binary.usesPermissions.map((p) => p.name));
+  });
+});

@@ -43,3 +43,21 @@ describe("shards", () => {
     for (const bad of ["0/5", "6/5", "a/b", "3"]) expect(parseShard(bad)).toBeUndefined();
   });
 });
+
+describe("folders of source trees", () => {
+  it("pass over resource XML whose root is not <manifest>, and count them", async () => {
+    const { readFileSync: read } = await import("node:fs");
+    const tree = join(dir, "tree", "app", "src", "main");
+    mkdirSync(join(tree, "res", "values"), { recursive: true });
+    writeFileSync(join(tree, "AndroidManifest.xml"), read(`${APK_DIR}../apps/tidewatch/AndroidManifest.xml`));
+    writeFileSync(join(tree, "res", "values", "strings.xml"), '<?xml version="1.0"?>\n<!-- texts -->\n<resources><string name="a">A</string></resources>\n');
+    // A compiled res/xml file (binary XML whose root is <network-security-config>), from the aapt2-built APK.
+    const { openArchiveFile } = await import("../../../src/ops/read-manifest.js");
+    const apk = openArchiveFile(`${APK_DIR}tidewatch.apk`);
+    writeFileSync(join(tree, "res", "nsc.xml"), apk.read("res/xml/network_security_config.xml", "MAX_MANIFEST_BYTES"));
+    apk.close();
+    const report = { notManifests: 0 };
+    expect(listInputs(join(dir, "tree"), report).map((i) => i.id)).toEqual(["app/src/main/AndroidManifest.xml"]);
+    expect(report.notManifests).toBe(2);
+  });
+});

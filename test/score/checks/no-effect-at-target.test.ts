@@ -25,3 +25,18 @@ describe("no-effect-at-target", () => {
     expect(run(["FLASHLIGHT"], 21).map((f) => f.subject)).toEqual(["android.permission.FLASHLIGHT"]);
   });
 });
+
+describe("no-effect-at-target and minSdk", () => {
+  it("says 'still used on older devices' and limits, while minSdk is below the change", async () => {
+    const { noEffectAtTarget } = await import("../../../src/score/checks/no-effect-at-target.js");
+    const low = findingsOf("no-effect-at-target", manifestText({ permissions: ["BLUETOOTH"], target: 34 }).replace('minSdkVersion="21"', 'minSdkVersion="26"'));
+    expect(low[0].data).toMatchObject({ stillUsedBelow: 31, limitTo: 30 });
+    expect(noEffectAtTarget.message(low[0])).toMatch(/^no effect on Android API 31 and later at targetSdk 34 .* still used on devices from minSdk 26 to API 30: limit it with android:maxSdkVersion="30"/);
+  });
+
+  it("says 'no effect' and removes, once minSdk is past the change", () => {
+    const high = findingsOf("no-effect-at-target", manifestText({ permissions: ["BLUETOOTH"], target: 34 }).replace('minSdkVersion="21"', 'minSdkVersion="31"'));
+    expect(high[0].data.stillUsedBelow).toBeUndefined();
+    expect(high[0].data.limitTo).toBeUndefined();
+  });
+});

@@ -14,3 +14,14 @@ describe("special-access-component", () => {
     expect(findingsOf("special-access-component", manifestText({ app }))).toEqual([]);
   });
 });
+
+describe("special-access-component: the list", () => {
+  it("names only permissions the platform defines, and covers assistants, credential providers and Do Not Disturb", async () => {
+    const { SPECIAL_ACCESS } = await import("../../../src/score/checks/special-access-component.js");
+    const { platformPermission } = await import("../../../src/platform/permissions.js");
+    for (const p of Object.keys(SPECIAL_ACCESS)) expect(platformPermission(p), p).toBeDefined(); // platform table, API 34
+    for (const p of ["BIND_VOICE_INTERACTION", "BIND_CREDENTIAL_PROVIDER_SERVICE", "BIND_CONDITION_PROVIDER_SERVICE"]) expect(SPECIAL_ACCESS[`android.permission.${p}`]).toBeDefined();
+    // Carrier services are bound only for apps signed by the SIM carrier: no user grants them.
+    expect(SPECIAL_ACCESS["android.permission.BIND_CARRIER_SERVICES"]).toBeUndefined();
+  });
+});

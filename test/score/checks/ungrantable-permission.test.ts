@@ -16,3 +16,17 @@ describe("ungrantable-permission", () => {
     expect(findingsOf("ungrantable-permission", manifestText({ permissions: ["SYSTEM_ALERT_WINDOW", "REQUEST_INSTALL_PACKAGES"] }))).toEqual([]);
   });
 });
+
+describe("ungrantable-permission: the ways a store app can still get one", () => {
+  it("says when a role gives it, or the user can grant it over adb, and keeps 'ignored' for the rest", async () => {
+    const { ungrantablePermission } = await import("../../../src/score/checks/ungrantable-permission.js");
+    // Flags from the platform table (API 34): WRITE_SECURE_SETTINGS is signature|privileged|development|role|installer,
+    // READ_LOGS signature|privileged|development, INSTALL_PACKAGES signature|privileged.
+    const f = findingsOf("ungrantable-permission", manifestText({ permissions: ["WRITE_SECURE_SETTINGS", "READ_LOGS", "INSTALL_PACKAGES"] }));
+    const msg = (p: string) => ungrantablePermission.message(f.find((x) => x.subject === `android.permission.${p}`)!);
+    expect(msg("WRITE_SECURE_SETTINGS")).toMatch(/system role .* over adb/);
+    expect(msg("READ_LOGS")).toMatch(/over adb/);
+    expect(msg("READ_LOGS")).not.toMatch(/ignored/);
+    expect(msg("INSTALL_PACKAGES")).toMatch(/a store app's request is ignored$/);
+  });
+});

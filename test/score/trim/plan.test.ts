@@ -69,3 +69,29 @@ describe("parseMergeReport", () => {
     expect(origins.get("org.example.adnet.permission.AD_ID")?.libraries).toEqual(["org.example.adnet:adnet-sdk:4.2.0"]);
   });
 });
+
+describe("trim never removes what the manifest shows the app needs", () => {
+  it("keeps foreground-service permissions a service type needs, guards of its own components, and notifications", async () => {
+    const { neededByManifest } = await import("../../../src/score/trim/plan.js");
+    const { readManifestBytes } = await import("../../../src/extract/index.js");
+    const text = `<manifest xmlns:android="http://schemas.android.com/apk/res/android" package="org.example.keep">
+  <uses-sdk android:minSdkVersion="26" android:targetSdkVersion="34" />
+  <uses-permission android:name="android.permission.FOREGROUND_SERVICE_LOCATION" />
+  <uses-permission android:name="android.permission.BIND_JOB_SERVICE" />
+  <application>
+    <service android:name=".Track" android:exported="false" android:foregroundServiceType="location" />
+    <service android:name=".Job" android:exported="true" android:permission="android.permission.BIND_JOB_SERVICE" />
+  </application>
+</manifest>`;
+    const needed = neededByManifest(readManifestBytes(new TextEncoder().encode(text)));
+    expect(needed.get("android.permission.FOREGROUND_SERVICE_LOCATION")).toMatch(/location foreground service org.example.keep.Track/);
+    expect(needed.get("android.permission.BIND_JOB_SERVICE")).toMatch(/guards the app's own service/);
+    expect(needed.get("android.permission.POST_NOTIFICATIONS")).toMatch(/never posts notifications/);
+  });
+
+  it("says why each suggestion is safe", async () => {
+    const { cli } = await import("../../helpers/cli.js");
+    const r = await cli(["trim", "-c", "TOOLS", "-f", "json", `${FIXTURES}apps/pocketlamp/AndroidManifest.xml`]);
+    for (const c of JSON.parse(r.stdout).candidates) expect(c.safe.length, c.permission).toBeGreaterThan(10);
+  });
+});
