@@ -51,6 +51,7 @@ build1 flashdeck flashdeck
 build2 townsquare townsquare
 build2 townsquare townsquare-nons --no-xml-namespaces
 build2 snapshare snapshare
+build2 tidewatch-next tidewatch-next
 build2 beamtorch beamtorch
 
 # App bundle layout and multi-APK archive, from the same demo manifests.

@@ -31,6 +31,8 @@ export interface StoredModel extends RiskModel {
   /** The labeled corpus the model learned from, named in every risk statement. */
   corpus: string;
   corpusLicence?: string;
+  /** The labeled corpus's full citation (provenance only; statements use `corpus`). */
+  corpusCitation?: string;
   /** `category`: features against each app's category; `pooled`: the labeled corpus had no categories. */
   featureBasis: "category" | "pooled";
   /** Permissions the labeled corpus could record; features count only these. Absent: any permission. */

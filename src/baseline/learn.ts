@@ -20,6 +20,8 @@ export interface LearnOptions {
   labels?: { source: CorpusSource; options: CorpusOptions; licence?: string };
   /** How risk statements name the labeled corpus (default: its path). */
   labelsName?: string;
+  /** The labeled corpus's full citation, kept in the model's provenance (not in risk statements). */
+  labelsCitation?: string;
   /** When the frequency corpus's apps were collected (e.g. "2020"), recorded with the era. */
   corpusYears?: string;
   parameters?: Partial<RateParameters>;
@@ -171,6 +173,7 @@ export async function learn(options: LearnOptions): Promise<LearnResult> {
       ...trained,
       corpus: options.labelsName ?? labelReport?.source ?? "the labeled corpus",
       ...(labelLicence ? { corpusLicence: labelLicence } : {}),
+      ...(options.labelsCitation ? { corpusCitation: options.labelsCitation } : {}),
       featureBasis: hasCategories ? "category" : "pooled",
       ...(vocabulary ? { vocabulary: [...vocabulary].sort() } : {}),
       ...(of > picked.length ? { sample: { of, taken: picked.length, seed } } : {}),

@@ -24,9 +24,10 @@ export interface CheckCliOptions extends JudgingCliOptions {
 
 export async function checkCommand(files: string[], o: CheckCliOptions, io: Io): Promise<number> {
   const { judge, baselineName } = loadJudge(o.baseline);
-  const options = judgeOptions(o);
+  const options = judgeOptions(o, judge.baseline);
   const gates = { ...(o.failOn ? { failOn: o.failOn } : {}), ...(o.maxRisk !== undefined ? { maxRisk: o.maxRisk } : {}) };
 
+  if (o.records && o.format !== "text" && o.format !== "json") throw new UsageError(`--records prints one JSON line per record; --format ${o.format} is not available with it`);
   if (o.records) {
     // --format is the output format here; the corpus format is told from its content.
     const corpus = {

@@ -13,7 +13,7 @@ export interface DeltaCliOptions extends JudgingCliOptions {
 
 export async function deltaCommand(before: string, after: string, o: DeltaCliOptions, io: Io): Promise<number> {
   const { judge } = loadJudge(o.baseline);
-  const d = delta(judge, before, after, judgeOptions(o));
+  const d = delta(judge, before, after, judgeOptions(o, judge.baseline));
   const caution = judge.scorer ? judge.file.caution : undefined;
   io.stdout.write(o.format === "json" ? deltaToJson(d, [before, after], caution) : deltaToText(d, [before, after], caution, pickStyle(io.stdout, io.env)));
   return EXIT.OK;

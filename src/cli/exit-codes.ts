@@ -4,14 +4,14 @@
  */
 export const EXIT_CODES = [
   { name: "OK", code: 0, help: "done", meaning: "every input was read and reported" },
-  { name: "GATE", code: 1, help: "a --fail-on or --max-risk gate was hit (check)", meaning: "`check` found something at or above `--fail-on`, or a risk above `--max-risk`" },
-  { name: "USAGE", code: 2, help: "wrong command line", meaning: "the command line is wrong (unknown option or command, missing argument)" },
+  { name: "GATE", code: 1, help: "a --fail-on or --max-risk gate was hit (check, sweep)", meaning: "`check` or `sweep` found something at or above `--fail-on`, or a risk above `--max-risk` (and every input was read)" },
+  { name: "USAGE", code: 2, help: "wrong command line", meaning: "the command line is wrong (unknown option or command, missing argument, a category the baseline does not have, a sweep source that is no app, folder or list)" },
   {
     name: "INPUT",
     code: 3,
     help: "an input could not be read (the others were still reported)",
     meaning:
-      "at least one input could not be read (a file, a corpus over its reject limit, a baseline of another schema version; for `sweep`, an app in the inventory); the others were still reported, and the error was printed as one line naming the file",
+      "at least one input could not be read (a file, a corpus over its reject limit, a baseline of another schema version; for `sweep`, an app in the inventory, or an inventory with nothing to sweep); the others were still reported, and the error was printed as one line naming the file",
   },
   { name: "INTERNAL", code: 4, help: "internal error (rerun with --debug)", meaning: "an internal error in overask; rerun with `--debug` for the stack trace and report it" },
   { name: "OUTPUT", code: 5, help: "an output could not be written", meaning: "an output could not be written (missing or read-only folder, full disk); an existing file is left as it was" },

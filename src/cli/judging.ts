@@ -1,6 +1,8 @@
 /** The options the judging commands share, turned into what the score layer takes. */
+import type { Baseline } from "../baseline/rates.js";
 import { UsageError } from "../errors.js";
 import { readCategoryIndex } from "../ops/check.js";
+import { categoryList, nearestCategory, resolveCategory } from "../score/category.js";
 import type { JudgeOptions } from "../score/judge.js";
 import { checkById, CHECKS } from "../score/registry.js";
 import type { Level } from "../score/types.js";
@@ -12,9 +14,20 @@ export interface JudgingCliOptions {
   level?: Map<string, Level | "off">;
 }
 
-export function judgeOptions(o: JudgingCliOptions): JudgeOptions {
+/**
+ * The judging options. A `--category` the baseline does not know is a usage error naming the nearest
+ * category and listing them all (a category given per app, by an index or --categories, is reported per
+ * app instead: the others are still judged).
+ */
+export function judgeOptions(o: JudgingCliOptions, baseline?: Baseline): JudgeOptions {
   const options: JudgeOptions = {};
-  if (o.category) options.category = o.category;
+  if (o.category) {
+    if (baseline && resolveCategory(baseline, o.category).fallback === "unknown-category") {
+      const near = nearestCategory(baseline, o.category);
+      throw new UsageError(`--category "${o.category}" is not a category of the baseline${near ? `; did you mean "${near}"?` : ""} Its categories: ${categoryList(baseline)}`);
+    }
+    options.category = o.category;
+  }
   if (o.categories) options.categoryIndex = readCategoryIndex(o.categories);
   for (const id of o.level?.keys() ?? []) {
     if (!checkById(id)) throw new UsageError(`--level names an unknown check "${id}"; the checks are ${CHECKS.map((c) => c.meta.id).join(", ")}`);

@@ -22,6 +22,7 @@ export interface LearnCliOptions {
   labels?: string;
   labelsLicence?: string;
   labelsName?: string;
+  labelsCitation?: string;
   corpusYears?: string;
   alias?: [string, string][];
   prior: "fixed" | "empirical-bayes";
@@ -58,6 +59,7 @@ export async function learnCommand(corpora: string[], o: LearnCliOptions, io: Io
       frequencies: corpora.map((path) => ({ path, options, ...(o.licence ? { licence: o.licence } : {}) })),
       ...(o.labels ? { labels: { path: o.labels, options, ...(o.labelsLicence ? { licence: o.labelsLicence } : {}) } } : {}),
       ...(o.labelsName ? { labelsName: o.labelsName } : {}),
+      ...(o.labelsCitation ? { labelsCitation: o.labelsCitation } : {}),
       ...(o.corpusYears ? { corpusYears: o.corpusYears } : {}),
       parameters: {
         prior: { method: o.prior, strength: o.priorStrength },

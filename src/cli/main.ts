@@ -22,7 +22,8 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
     .version(TOOL_VERSION, "-V, --version")
     .option("--debug", "print stack traces for errors")
     .showHelpAfterError("(run overask --help for usage)")
-    .configureOutput({ writeOut: (s) => io.stdout.write(s), writeErr: (s) => io.stderr.write(s) })
+    // Argument errors read like every other error: `overask: <problem>`.
+    .configureOutput({ writeOut: (s) => io.stdout.write(s), writeErr: (s) => io.stderr.write(s), outputError: (s, write) => write(`overask: ${s.replace(/^error: /, "")}`) })
     .addHelpText("after", exitCodesHelp())
     .exitOverride();
 
@@ -54,6 +55,7 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
     .option("--labels <file>", "separate labeled corpus for the risk model (same field options)")
     .option("--labels-licence <text>", "licence of the labeled corpus")
     .option("--labels-name <text>", "how risk statements name the labeled corpus (default: its path)")
+    .option("--labels-citation <text>", "the labeled corpus's full citation, kept in the baseline's provenance")
     .option("--corpus-years <years>", "when the frequency corpus's apps were collected (e.g. 2020), recorded with the baseline's era")
     .option("--alias <from=to>", "category alias, e.g. Educational=Education (repeatable)", collectPairs)
     .addOption(new Option("--prior <method>", "shrinkage toward the pooled rate").choices(["fixed", "empirical-bayes"]).default("fixed"))
@@ -110,6 +112,8 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
     .option("--categories <file>", "CSV mapping package names to categories (package,category)")
     .option("-b, --baseline <file>", "baseline file (default: the bundled baselines/default.json)")
     .option("--level <check=level>", "override a check's level (repeatable)", collectLevels)
+    .addOption(new Option("--fail-on <level>", "exit 1 when an app has a finding at or above this level").choices(["error", "warning", "note"]))
+    .option("--max-risk <p>", "exit 1 when an app's risk is above this probability", closedUnit)
     .action(async (source: string, o: import("./sweep-command.js").SweepCliOptions) => {
       const { sweepCommand } = await import("./sweep-command.js");
       exitCode = await sweepCommand(source, o, io);
@@ -136,6 +140,18 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
     .action(async (before: string, after: string, o: import("./delta-command.js").DeltaCliOptions) => {
       const { deltaCommand } = await import("./delta-command.js");
       exitCode = await deltaCommand(before, after, o, io);
+    });
+
+  program
+    .command("baseline")
+    .description("show what a baseline knows: categories, era, provenance; rates for a category or a permission")
+    .argument("[file]", "baseline file (default: the bundled baselines/default.json)")
+    .option("-c, --category <name>", "list the rate of every permission this category's apps request")
+    .option("-p, --permission <name>", "list this permission's rate in every category (bare platform names allowed)")
+    .addOption(new Option("-f, --format <format>", "output format").choices(["text", "json"]).default("text"))
+    .action(async (file: string | undefined, o: import("./baseline-command.js").BaselineCliOptions) => {
+      const { baselineCommand } = await import("./baseline-command.js");
+      exitCode = baselineCommand(file, o, io);
     });
 
   program

@@ -1,7 +1,9 @@
 /** `overask sweep`: screening an inventory in parallel, resumably, with an optional HTML report. */
 import { availableParallelism } from "node:os";
+import { loadJudge } from "../ops/baseline.js";
 import { sweep } from "../ops/sweep/sweep.js";
 import { sweepSummaryText } from "../report/sweep-summary.js";
+import type { Level } from "../score/types.js";
 import { EXIT } from "./exit-codes.js";
 import type { Io } from "./io.js";
 import { judgeOptions, type JudgingCliOptions } from "./judging.js";
@@ -14,9 +16,13 @@ export interface SweepCliOptions extends JudgingCliOptions {
   jobs?: number;
   resume?: boolean;
   shard?: { index: number; count: number };
+  failOn?: Level;
+  maxRisk?: number;
 }
 
 export async function sweepCommand(source: string, o: SweepCliOptions, io: Io): Promise<number> {
+  const loaded = loadJudge(o.baseline);
+  const judge = judgeOptions(o, loaded.judge.baseline);
   const bar = progressBar(io.stderr);
   let summary;
   try {
@@ -24,17 +30,19 @@ export async function sweepCommand(source: string, o: SweepCliOptions, io: Io): 
       source,
       output: o.output,
       format: o.format,
-      ...(o.baseline ? { baseline: o.baseline } : {}),
-      judge: judgeOptions(o),
+      loaded,
+      judge,
       jobs: o.jobs ?? availableParallelism(),
       resume: o.resume === true,
       ...(o.shard ? { shard: o.shard } : {}),
       ...(o.html ? { html: o.html } : {}),
+      gates: { ...(o.failOn ? { failOn: o.failOn } : {}), ...(o.maxRisk !== undefined ? { maxRisk: o.maxRisk } : {}) },
       onProgress: (done, total) => bar.update("sweeping", done, total, "apps"),
     });
   } finally {
     bar.stop();
   }
   io.stdout.write(sweepSummaryText(summary));
-  return summary.failed > 0 ? EXIT.INPUT : EXIT.OK;
+  // As for check: an input that could not be read (3) outranks a gate (1).
+  return summary.failed > 0 ? EXIT.INPUT : summary.gated ? EXIT.GATE : EXIT.OK;
 }

@@ -18,8 +18,8 @@ export interface TrimCliOptions extends JudgingCliOptions {
 
 export async function trimCommand(file: string, o: TrimCliOptions, io: Io): Promise<number> {
   const { judge } = loadJudge(o.baseline);
-  const { plan, written } = trim(judge, file, {
-    judge: judgeOptions(o),
+  const { plan, written, unchanged } = trim(judge, file, {
+    judge: judgeOptions(o, judge.baseline),
     ...(o.mergeReport ? { mergeReport: o.mergeReport } : {}),
     ...(o.source ? { source: o.source } : {}),
     ...(o.keep ? { keep: o.keep } : {}),
@@ -28,6 +28,7 @@ export async function trimCommand(file: string, o: TrimCliOptions, io: Io): Prom
   });
   const caution = judge.scorer ? judge.file.caution : undefined;
   io.stdout.write(o.format === "json" ? trimToJson(plan, file) : trimToText(plan, file, caution, pickStyle(io.stdout, io.env)));
+  if (unchanged) io.stderr.write(`overask: nothing to change in ${o.source ?? file}; left it as it was\n`);
   if (written) io.stderr.write(`overask: wrote ${written} (${plan.candidates.length} change${plan.candidates.length === 1 ? "" : "s"})\n`);
   return EXIT.OK;
 }

@@ -9,6 +9,7 @@ import { parseMergeReport } from "../score/merge-report.js";
 import { patchManifest } from "../score/trim/patch.js";
 import { planTrim, type TrimPlan } from "../score/trim/plan.js";
 import { normalizePermissionName } from "../platform/permissions.js";
+import { resolve } from "node:path";
 import { readTextFile, writeFileAtomic } from "./files.js";
 import { readManifestFile } from "./read-manifest.js";
 
@@ -30,6 +31,8 @@ export interface TrimOutcome {
   plan: TrimPlan;
   /** The file written, when one was. */
   written?: string;
+  /** --in-place found nothing to change, and wrote nothing. */
+  unchanged?: boolean;
 }
 
 export function trim(judge: Judge, file: string, o: TrimOptions): TrimOutcome {
@@ -54,7 +57,12 @@ export function trim(judge: Judge, file: string, o: TrimOptions): TrimOutcome {
   const target = o.inPlace ? sourcePath : o.write;
   if (!o.write && !o.inPlace) return { plan };
   if (!sourcePath || !target) throw new UsageError(`--write and --in-place patch a plain source manifest; ${file} is ${manifest.input.kind === "apk" ? "an APK" : "a binary manifest"}: name the source with --source`);
-  writeFileAtomic(target, patchManifest(readTextFile(sourcePath), full, plan.candidates));
+  if (o.write && resolve(o.write) === resolve(sourcePath)) throw new UsageError(`--write ${o.write} is the source manifest itself; to patch it in place say --in-place`);
+  const original = readTextFile(sourcePath);
+  const patched = patchManifest(original, full, plan.candidates);
+  // Nothing to change: an in-place patch leaves the file alone (its time stamp included).
+  if (o.inPlace && patched === original) return { plan, unchanged: true };
+  writeFileAtomic(target, patched);
   // The patched file must still read as a manifest, and without the permissions removed.
   const left = new Set(requestedPermissionNames(readManifestFile(target)));
   const stillThere = plan.candidates.filter((c) => c.action.kind === "delete" && c.element && left.has(c.permission));

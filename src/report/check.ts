@@ -8,6 +8,7 @@ import { checkById } from "../score/registry.js";
 import type { RiskEstimate } from "../score/risk.js";
 import type { Finding } from "../score/types.js";
 import { TOOL_VERSION } from "../version.js";
+import { findingLines } from "./finding-text.js";
 import { PLAIN, fit, wrap, type Style } from "./style.js";
 
 export const CHECK_SCHEMA_VERSION = 1;
@@ -98,10 +99,8 @@ export function riskLines(r: RiskEstimate, s: Style, width = 80): string[] {
 export function checkToText(runs: CheckRun[], info: CheckRunInfo, s: Style = PLAIN): string {
   const parts: string[] = [];
   for (const run of runs) {
-    if (!run.result) {
-      parts.push(`${s.alert("error")} ${run.file}: ${run.error?.message ?? "unreadable"}\n`);
-      continue;
-    }
+    // An input that could not be read was reported once, on stderr, by the command.
+    if (!run.result) continue;
     const { manifest: m, category, findings, risk, notJudged, era } = run.result;
     const out: string[] = [];
     out.push(s.bold(m.label && m.labelSource !== "unresolved" ? `${m.package}  “${m.label}”` : m.package));
@@ -115,17 +114,12 @@ export function checkToText(runs: CheckRun[], info: CheckRunInfo, s: Style = PLA
     else out.push(s.dim("Risk  not estimated: the baseline has no risk model"), "");
     out.push(s.bold(`Findings (${findings.length})`));
     if (findings.length === 0) out.push("  none");
-    for (const f of findings) {
-      const level = f.level === "error" ? s.alert(fit(f.level, 7)) : f.level === "warning" ? s.warn(fit(f.level, 7)) : fit(f.level, 7);
-      out.push(`  ${level}  ${short(f.subject)}`);
-      out.push(...wrap(`           ${messageOf(f)} [${f.checkId}]`, 80, 11).map((l) => s.dim(l)));
-      for (const a of alsoMessages(f)) out.push(...wrap(`           also: ${a.message} [${a.checkId}]`, 80, 11).map((l) => s.dim(l)));
-    }
+    for (const f of findings) out.push(...findingLines(f, messageOf(f), alsoMessages(f), s));
     if (notJudged.length) {
       out.push("", s.bold(`Not judged by frequency (${notJudged.length})`));
       for (const n of notJudged) {
         out.push(`  ${short(n.permission)}`);
-        out.push(...wrap(`           ${notJudgedText(n, era?.api)}`, 80, 11).map((l) => s.dim(l)));
+        out.push(...wrap(`    ${notJudgedText(n, era?.api)}`, 80, 4).map((l) => s.dim(l)));
       }
     }
     parts.push(`${out.join("\n")}\n`);

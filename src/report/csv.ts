@@ -5,7 +5,7 @@
 import type { AppRow } from "../score/row.js";
 import { csvCell } from "../util/csv.js";
 
-export const ROW_CSV_COLUMNS = ["id", "size", "mtimeMs", "status", "package", "versionName", "versionCode", "category", "fallback", "risk", "band", "errors", "warnings", "notes", "checks", "errorKind", "errorMessage"] as const;
+export const ROW_CSV_COLUMNS = ["id", "size", "mtimeMs", "status", "package", "versionName", "versionCode", "category", "fallback", "risk", "band", "errors", "warnings", "notes", "checks", "errorKind", "errorMessage", "findings"] as const;
 
 export function csvHeader(): string {
   return `${ROW_CSV_COLUMNS.join(",")}\n`;
@@ -30,6 +30,8 @@ export function rowToCsv(r: AppRow): string {
     checks: r.findings ? [...new Set(r.findings.map((f) => f.checkId))].join(" ") : undefined,
     errorKind: r.error?.kind,
     errorMessage: r.error?.message,
+    // Every finding in words, one after another: `level checkId subject: message`, separated by " | ".
+    findings: r.findings?.map((f) => `${f.level} ${f.checkId} ${f.subject}${f.message ? `: ${f.message}` : ""}`).join(" | "),
   };
   return `${ROW_CSV_COLUMNS.map((c) => csvCell(cells[c])).join(",")}\n`;
 }
@@ -46,5 +48,6 @@ export function rowFromCsv(f: readonly string[]): AppRow | undefined {
     ...(f[4] ? { package: f[4] } : {}),
     ...(risk !== undefined ? { risk } : {}),
     ...(f[10] ? { band: f[10] } : {}),
+    ...(f[8] ? { fallback: f[8] } : {}),
   };
 }

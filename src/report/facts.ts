@@ -42,29 +42,45 @@ function inputText(m: Manifest): string {
   return m.input.kind === "plain-xml" ? kind : `${kind}, ${enc}`;
 }
 
-function permissionNotes(p: RequestedPermission): string {
+/**
+ * What a requested permission means to the user, in groups: asked at run time, granted as special access in
+ * settings, granted at install, out of a store app's reach, not the platform's, or the app's own.
+ */
+type GroupId = "runtime" | "special" | "install" | "unreachable" | "undefined" | "own";
+
+const PERMISSION_GROUPS: { id: GroupId; title: string }[] = [
+  { id: "runtime", title: "Runtime: the user is asked when the app uses it" },
+  { id: "special", title: "Special access: the user grants it in settings" },
+  { id: "install", title: "Install-time: granted without asking" },
+  { id: "unreachable", title: "Out of reach: a store app is not granted it" },
+  { id: "undefined", title: "Not defined by the platform" },
+  { id: "own", title: "The app's own" },
+];
+
+function groupOf(m: Manifest, p: RequestedPermission): GroupId {
+  const f = p.facts;
+  if (f.origin === "app" || (m.package !== "" && p.name.startsWith(`${m.package}.`))) return "own";
+  if (f.origin !== "platform") return "undefined";
+  if (f.base === "dangerous") return "runtime";
+  if (f.flags?.includes("appop")) return "special";
+  if (f.base === "normal") return "install";
+  return "unreachable";
+}
+
+function permissionNotes(p: RequestedPermission, group: GroupId): string {
   const f = p.facts;
   const notes: string[] = [];
-  if (f.origin === "app") notes.push("declared by this app");
-  if (f.origin === "other") notes.push(f.unknownPlatformName ? "not defined by the platform" : "not a platform permission");
+  if (group === "undefined") notes.push(f.unknownPlatformName ? "an android.permission name the platform does not define" : "another app's permission");
+  if (group === "unreachable" || group === "special") notes.push([f.base, ...(f.flags ?? [])].filter(Boolean).join(", "));
   if (f.hardRestricted) notes.push("hard-restricted");
   if (f.softRestricted) notes.push("soft-restricted");
   if (f.removed) notes.push(REMOVED_PERMISSION_SHORT);
   else if (f.docNote) notes.push(f.docNote);
-  if (f.flags?.includes("appop")) notes.push("appop");
-  if (f.flags?.includes("privileged")) notes.push("privileged");
   if (p.maxSdkVersion !== undefined) notes.push(`up to SDK ${p.maxSdkVersion}`);
   if (p.element !== "uses-permission") notes.push(`<${p.element}>`);
   if (p.removedByTools) notes.push('tools:node="remove"');
   if (p.module && p.module !== "base") notes.push(`from ${p.module}`);
   return notes.join(", ");
-}
-
-function levelText(p: RequestedPermission, style: Style): string {
-  const base = p.facts.base ?? "—";
-  if (base === "dangerous") return style.warn(fit(base, 10));
-  if (base === "signature" || base === "internal" || base === "signatureOrSystem") return style.alert(fit(base, 10));
-  return fit(base, 10);
 }
 
 function exportText(c: Component): string[] {
@@ -118,16 +134,19 @@ function manifestText(file: string, m: Manifest, s: Style): string {
   const perms = m.usesPermissions;
   out.push("", `${s.bold(`Requested permissions (${perms.length})`)}${perms.some((p) => p.name.startsWith(PLATFORM_PREFIX)) ? s.dim(`  names without “${PLATFORM_PREFIX}”`) : ""}`);
   if (perms.length === 0) out.push("  none");
-  else {
-    const nameWidth = Math.min(30, Math.max(10, ...perms.map((p) => shortName(p.name).length)));
-    const notesAt = 2 + nameWidth + 2 + 10 + 2;
-    out.push(s.dim(`  ${fit("PERMISSION", nameWidth)}  ${fit("LEVEL", 10)}  NOTES`));
-    for (const p of [...perms].sort(byName)) {
+  const nameWidth = Math.min(32, Math.max(10, ...perms.map((p) => shortName(p.name).length)));
+  const notesAt = 4 + nameWidth + 2;
+  for (const g of PERMISSION_GROUPS) {
+    const members = perms.filter((p) => groupOf(m, p) === g.id).sort(byName);
+    if (!members.length) continue;
+    out.push(`  ${s.bold(g.title)} ${s.dim(`(${members.length})`)}`);
+    for (const p of members) {
       const name = shortName(p.name);
-      const head = `  ${fit(name.length > nameWidth ? "" : name, nameWidth)}  ${levelText(p, s)}  `;
-      if (name.length > nameWidth) out.push(`  ${name}`);
-      const notes = wrap(permissionNotes(p), WIDTH - notesAt, 0);
-      out.push(`${head}${notes[0] ?? ""}`.trimEnd(), ...notes.slice(1).map((n) => " ".repeat(notesAt) + n));
+      const notes = wrap(permissionNotes(p, g.id), WIDTH - notesAt, 0);
+      if (name.length > nameWidth) out.push(`    ${name}`);
+      const first = `    ${fit(name.length > nameWidth ? "" : name, nameWidth)}  ${notes[0] ?? ""}`.trimEnd();
+      if (first.trim()) out.push(first);
+      out.push(...notes.slice(1).map((n) => " ".repeat(notesAt) + n));
     }
   }
   if (m.declaredPermissions.length) {

@@ -14,7 +14,9 @@ export function checkToSarif(runs: CheckRun[], info: CheckRunInfo): string {
     name: c.meta.title.replace(/[^A-Za-z0-9]+(.)?/g, (_, ch: string | undefined) => (ch ? ch.toUpperCase() : "")),
     shortDescription: { text: c.meta.title },
     fullDescription: { text: c.meta.description },
-    helpUri: c.meta.docs,
+    // helpUri must be an absolute URI (SARIF 2.1.0 §3.49.12); the docs are files of the package, so the
+    // help text carries the description and where the page is instead.
+    help: { text: `${c.meta.description} Documentation: ${c.meta.docs} in the overask package.` },
     defaultConfiguration: { level: c.meta.defaultLevel },
   }));
   const results: Result[] = [];
@@ -41,6 +43,15 @@ export function checkToSarif(runs: CheckRun[], info: CheckRunInfo): string {
     runs: [
       {
         tool: { driver: { name: "overask", version: TOOL_VERSION, rules } },
+        // Inputs that could not be read, where a code-scanning service shows tool problems (SARIF §3.20.21).
+        invocations: [
+          {
+            executionSuccessful: runs.every((r) => r.result),
+            toolExecutionNotifications: runs
+              .filter((r) => !r.result)
+              .map((r) => ({ level: "error" as const, message: { text: `${r.file}: ${r.error?.message ?? "could not be read"}` }, locations: [{ physicalLocation: { artifactLocation: { uri: toUri(r.file) } } }], properties: { kind: r.error?.kind } })),
+          },
+        ],
         results,
         properties: {
           baseline: info.baseline,

@@ -26,12 +26,35 @@ export function fit(s: string, width: number): string {
   return `${s.slice(0, Math.max(0, width - 1))}…`;
 }
 
-/** Word-wraps `text` to `width` columns, continuation lines indented by `indent` spaces. */
+/**
+ * Word-wraps `text` to `width` columns, continuation lines indented by `indent` spaces. A word longer than
+ * a whole line (a long path) is split where it stands — after a `/` when one is near — instead of leaving
+ * its label alone on a line.
+ */
 export function wrap(text: string, width: number, indent: number): string[] {
   const lead = /^ */.exec(text)![0];
   const lines: string[] = [];
+  const room = Math.max(10, width - indent);
   let line = lead;
-  for (const word of text.slice(lead.length).split(" ")) {
+  for (let word of text.slice(lead.length).split(" ")) {
+    if (word.length > room) {
+      // Fill the current line, then go on with the rest.
+      while (word.length > 0) {
+        const space = width - line.length - (line.trim() ? 1 : 0);
+        if (word.length <= space) break;
+        if (space < 8) {
+          lines.push(line);
+          line = " ".repeat(indent);
+          continue;
+        }
+        const slash = word.lastIndexOf("/", space - 1);
+        const cut = slash >= space / 2 ? slash + 1 : space;
+        lines.push(line.trim() ? `${line} ${word.slice(0, cut)}` : line + word.slice(0, cut));
+        line = " ".repeat(indent);
+        word = word.slice(cut);
+      }
+      if (!word) continue;
+    }
     if (line.trim() && line.length + 1 + word.length > width) {
       lines.push(line);
       line = " ".repeat(indent) + word;

@@ -6,6 +6,10 @@ export interface SweepTotals {
   skipped: number;
   /** .xml files in the folder passed over because their root element is not <manifest>. */
   notManifests?: number;
+  /** Apps whose category (from an index or --categories) the baseline does not have. */
+  unknownCategory?: number;
+  /** Apps that tripped --fail-on or --max-risk. */
+  gated?: number;
   scored: number;
   failed: number;
   byBand: Record<string, number>;
@@ -18,14 +22,16 @@ export interface SweepTotals {
 
 export function sweepSummaryText(s: SweepTotals): string {
   const out: string[] = [];
-  out.push(`Swept ${s.inputs} inputs${s.shard ? ` (shard ${s.shard.index}/${s.shard.count})` : ""}: ${s.scored} scored, ${s.failed} could not be read${s.skipped ? `, ${s.skipped} kept from the earlier run` : ""}.`);
+  out.push(`Swept ${s.inputs} input${s.inputs === 1 ? "" : "s"}${s.shard ? ` (shard ${s.shard.index}/${s.shard.count})` : ""}: ${s.scored} scored, ${s.failed} could not be read${s.skipped ? `, ${s.skipped} kept from the earlier run` : ""}.`);
   if (s.notManifests) out.push(`Passed over ${s.notManifests} .xml file${s.notManifests === 1 ? "" : "s"} that are not manifests (resource files).`);
+  if (s.unknownCategory) out.push(`${s.unknownCategory} app${s.unknownCategory === 1 ? "" : "s"} named a category the baseline does not have: judged against all categories pooled (see the fallback column).`);
   const bands = ["high", "elevated", "low"].filter((b) => s.byBand[b]).map((b) => `${s.byBand[b]} ${b}`);
   if (bands.length) out.push(`Risk bands: ${bands.join(", ")}.`);
   if (s.top.length) {
     out.push("Highest risks:");
     for (const t of s.top.slice(0, 10)) out.push(`  ${(100 * t.risk).toFixed(0).padStart(3)}%  ${t.package ?? ""}  ${t.id}`);
   }
+  if (s.gated) out.push(`${s.gated} app${s.gated === 1 ? "" : "s"} at or above the --fail-on level or over --max-risk.`);
   out.push(`Results: ${s.output}${s.html ? `\nReport:  ${s.html}` : ""}`);
   if (s.caution) out.push(...wrap(s.caution, 80, 0));
   return `${out.join("\n")}\n`;

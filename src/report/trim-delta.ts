@@ -4,6 +4,7 @@ import { snippetFor, type TrimPlan } from "../score/trim/plan.js";
 import { TOOLS_NS } from "../extract/xml-tree.js";
 import { TOOL_VERSION } from "../version.js";
 import { messageOf } from "./check.js";
+import { findingLines, verdict } from "./finding-text.js";
 import { PLAIN, wrap, type Style } from "./style.js";
 
 const pct = (x: number) => `${(100 * x).toFixed(x < 0.1 ? 1 : 0)}%`;
@@ -21,8 +22,8 @@ export function trimToText(plan: TrimPlan, file: string, caution: string | undef
     out.push("");
     const risk = plan.risk !== undefined && c.riskWithout !== undefined ? `  risk ${pct(plan.risk)} → ${pct(c.riskWithout)}` : "";
     out.push(`${String(i + 1).padStart(3)}. ${s.bold(short(c.permission))}${risk}`);
-    out.push(...wrap(`     why: ${c.reasons.map((r) => r.checkId).join(", ")}`, 80, 10).map((l) => s.dim(l)));
-    if (c.safe) out.push(...wrap(`     safe because ${c.safe}`, 80, 10).map((l) => s.dim(l)));
+    for (const r of c.reasons) out.push(...wrap(`     ${verdict(r.level, r.checkId, s)}${r.message ? ` ${r.message}` : ""}`, 80, 7).map((l) => s.dim(l)));
+    if (c.safe) out.push(...wrap(`     safe because ${c.safe}`, 80, 7).map((l) => s.dim(l)));
     if (c.libraries?.length) out.push(...wrap(`     added by ${c.libraries.join(", ")}`, 80, 10));
     const how =
       c.action.kind === "limit"
@@ -62,13 +63,14 @@ export function deltaToText(d: Delta, files: [string, string], caution: string |
     if (caution) out.push(...wrap(`  ${caution}`, 80, 2).map((l) => s.dim(l)));
   }
   out.push("", s.bold(`Permissions added (${d.added.length})`));
-  for (const a of d.added) out.push(`  + ${short(a.permission)}${a.base ? s.dim(`  ${[a.base, ...(a.flags ?? [])].join("|")}`) : ""}`);
+  const describe = (c: Delta["added"][number]) => [c.base, ...(c.flags ?? []), c.restricted ? `${c.restricted}-restricted` : undefined].filter(Boolean).join(", ");
+  for (const a of d.added) out.push(`  + ${short(a.permission)}${describe(a) ? s.dim(`  ${describe(a)}`) : ""}`);
   out.push("", s.bold(`Permissions removed (${d.removed.length})`));
-  for (const r of d.removed) out.push(`  - ${short(r)}`);
+  for (const r of d.removed) out.push(`  - ${short(r.permission)}${describe(r) ? s.dim(`  ${describe(r)}`) : ""}`);
   out.push("", s.bold(`Newly uncommon for the category (${d.newlyUncommon.length})`));
-  for (const f of d.newlyUncommon) out.push(`  ${short(f.subject)}`, ...wrap(`      ${messageOf(f)}`, 80, 6).map((l) => s.dim(l)));
+  for (const f of d.newlyUncommon) out.push(...findingLines(f, messageOf(f), [], s));
   out.push("", s.bold(`Special access (${d.specialAccess.added.length} new, ${d.specialAccess.removed.length} gone)`));
-  for (const f of d.specialAccess.added) out.push(...wrap(`  + ${f.subject}: ${messageOf(f)}`, 80, 6));
+  for (const f of d.specialAccess.added) out.push(...findingLines({ ...f, subject: `+ ${f.subject}` }, messageOf(f), [], s));
   for (const f of d.specialAccess.removed) out.push(...wrap(`  - ${f.subject}`, 80, 6));
   out.push("", s.bold(`Newly exported components (${d.newlyExported.length})`));
   for (const c of d.newlyExported) out.push(`  + ${c.kind} ${c.name}`);

@@ -7,6 +7,7 @@ import type { Baseline, Fallback } from "../baseline/rates.js";
 import { CorpusError } from "../errors.js";
 import type { Manifest } from "../extract/manifest/model.js";
 import { splitCsvLine } from "../util/csv.js";
+import { editDistance } from "../util/edit-distance.js";
 
 export interface CategoryChoice {
   /** The baseline category used; absent when the pooled baseline is used. */
@@ -93,4 +94,22 @@ function matchCase(name: string, baseline: Baseline): string {
   if (baseline.counts.categories.has(name)) return name;
   const lower = name.toLowerCase();
   return [...baseline.counts.categories.keys()].find((c) => c.toLowerCase() === lower) ?? name;
+}
+
+/**
+ * For a category name the baseline does not know: the nearest of its categories (case ignored, edit
+ * distance), to suggest in an error.
+ */
+export function nearestCategory(baseline: Baseline, name: string): string | undefined {
+  let best: { name: string; d: number } | undefined;
+  for (const c of [...baseline.counts.categories.keys(), ...baseline.aliases.keys()]) {
+    const d = editDistance(name.toLowerCase(), c.toLowerCase());
+    if (!best || d < best.d) best = { name: baseline.aliases.get(c) ?? c, d };
+  }
+  return best && best.d <= Math.max(2, Math.floor(name.length / 3)) ? best.name : undefined;
+}
+
+/** The baseline's categories with their app counts, for messages and `overask baseline`. */
+export function categoryList(baseline: Baseline): string {
+  return baseline.categorySummary().map((c) => `${c.name} (${c.apps} apps${c.pooled ? ", below the minimum support" : ""})`).join(", ");
 }

@@ -15,12 +15,30 @@ export interface AppVersion {
   band?: string;
 }
 
+export interface PermissionChange {
+  permission: string;
+  base?: string;
+  flags?: string[];
+  restricted?: "hard" | "soft";
+}
+
+function change(r: CheckResult, permission: string): PermissionChange {
+  const f = r.manifest.usesPermissions.find((p) => p.name === permission)?.facts;
+  return {
+    permission,
+    ...(f?.base ? { base: f.base } : {}),
+    ...(f?.flags?.length ? { flags: f.flags } : {}),
+    ...(f?.hardRestricted ? { restricted: "hard" as const } : f?.softRestricted ? { restricted: "soft" as const } : {}),
+  };
+}
+
 export interface Delta {
   before: AppVersion;
   after: AppVersion;
   samePackage: boolean;
-  added: { permission: string; base?: string; flags?: string[] }[];
-  removed: string[];
+  /** Permissions requested now and not before, and the other way round, each with its platform protection and restrictions. */
+  added: PermissionChange[];
+  removed: PermissionChange[];
   /** Uncommon-permission findings of the new version that the old one did not have. */
   newlyUncommon: Finding[];
   /** Special-access components that appeared or disappeared. */
@@ -46,7 +64,6 @@ const SPECIAL_ACCESS_CHECKS = checkIdsTagged("special-access");
 export function compareVersions(before: CheckResult, after: CheckResult): Delta {
   const old = new Set(requestedPermissionNames(before.manifest));
   const now = new Set(requestedPermissionNames(after.manifest));
-  const facts = new Map(after.manifest.usesPermissions.map((p) => [p.name, p.facts]));
   const oldRate = new Set(before.findings.filter((f) => RATE_CHECKS.has(f.checkId)).map((f) => f.subject));
   const special = (r: CheckResult) => r.findings.filter((f) => SPECIAL_ACCESS_CHECKS.has(f.checkId));
   const key = (f: Finding) => `${f.subject}\u0000${f.data.permission}`;
@@ -57,8 +74,8 @@ export function compareVersions(before: CheckResult, after: CheckResult): Delta 
     before: version(before),
     after: version(after),
     samePackage: before.manifest.package === after.manifest.package,
-    added: [...now].filter((p) => !old.has(p)).sort().map((p) => ({ permission: p, ...(facts.get(p)?.base ? { base: facts.get(p)!.base } : {}), ...(facts.get(p)?.flags ? { flags: facts.get(p)!.flags } : {}) })),
-    removed: [...old].filter((p) => !now.has(p)).sort(),
+    added: [...now].filter((p) => !old.has(p)).sort().map((p) => change(after, p)),
+    removed: [...old].filter((p) => !now.has(p)).sort().map((p) => change(before, p)),
     newlyUncommon: after.findings.filter((f) => RATE_CHECKS.has(f.checkId) && !oldRate.has(f.subject)),
     specialAccess: {
       added: special(after).filter((f) => !oldSpecial.has(key(f))),

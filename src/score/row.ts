@@ -6,7 +6,8 @@
  */
 import { requestedPermissionNames } from "../extract/manifest/model.js";
 import type { CheckResult } from "./judge.js";
-import type { Level } from "./types.js";
+import { checkById } from "./registry.js";
+import type { Finding, Level } from "./types.js";
 
 export const ROW_SCHEMA_VERSION = 1;
 
@@ -27,10 +28,17 @@ export interface AppRow extends RowKey {
   risk?: number;
   band?: string;
   counts?: Record<Level, number>;
-  findings?: { checkId: string; level: Level; subject: string }[];
+  /** Each finding with its message (rows read back from CSV carry none). */
+  findings?: { checkId: string; level: Level; subject: string; message?: string }[];
   whatIf?: { permission: string; without: number }[];
   permissions?: string[];
   error?: { kind: string; message: string };
+}
+
+/** A finding's message, with the reasons folded into it (`also`), worded by their checks. */
+function messageWithAlso(f: Finding): string {
+  const word = (checkId: string, data: Finding["data"]) => checkById(checkId)?.message({ subject: f.subject, data }) ?? checkId;
+  return [word(f.checkId, f.data), ...(f.also ?? []).map((a) => `also (${a.checkId}): ${word(a.checkId, a.data)}`)].join(" ");
 }
 
 /** The row of a judged app. */
@@ -49,7 +57,7 @@ export function rowOf(key: RowKey, r: CheckResult): AppRow {
     ...(r.category.category ? { category: r.category.category } : {}),
     ...(r.category.fallback ? { fallback: r.category.fallback } : {}),
     counts,
-    findings: r.findings.map((f) => ({ checkId: f.checkId, level: f.level, subject: f.subject })),
+    findings: r.findings.map((f) => ({ checkId: f.checkId, level: f.level, subject: f.subject, message: messageWithAlso(f) })),
     permissions: requestedPermissionNames(m).sort(),
   };
   if (r.risk) {

@@ -6,7 +6,7 @@
 import { closeSync, openSync, readFileSync, readSync, readdirSync, statSync } from "node:fs";
 import { join, relative, resolve, dirname, sep } from "node:path";
 import { splitCsvLine } from "../../util/csv.js";
-import { InputError } from "../../errors.js";
+import { InputError, UsageError } from "../../errors.js";
 import { decodeBinaryXml } from "../../extract/binary/binary-xml.js";
 import { DETECT_BYTES, detectKind } from "../../extract/detect.js";
 import { fnv1a32 } from "../../util/hash.js";
@@ -101,21 +101,51 @@ function fileInput(base: string, listed: string, category?: string): SweepInput 
   return { id: listed, file, size, mtimeMs, ...(category ? { category } : {}) };
 }
 
+/**
+ * What a source is: a folder to walk; a single app file (an APK, bundle, archive or manifest, told by
+ * content); an index CSV (`file,category`); a list of paths, one a line. Anything else — binary data that is
+ * no app, an XML file that is no manifest — is a usage error: sweeping it line by line would only make
+ * rows of garbage.
+ */
+export function sourceKind(source: string): "folder" | "app" | "index" | "list" {
+  const st = statSync(source);
+  if (st.isDirectory()) return "folder";
+  if (!st.isFile()) throw new UsageError(`${source} is not a regular file or a folder`);
+  const bytes = head(source, XML_PEEK_BYTES);
+  const kind = detectKind(bytes.subarray(0, DETECT_BYTES));
+  if (kind === "zip" || kind === "binary-xml" || kind === "proto-xml") return "app";
+  if (kind === "plain-xml") {
+    if (plainlyNotManifest(source)) throw new UsageError(`${source} is an XML file but not a manifest; give an app, a folder, a list of files or an index CSV`);
+    return "app";
+  }
+  const text = bytes.length ? new TextDecoder("utf-8", { fatal: false }).decode(bytes) : "";
+  if (bytes.includes(0) || text.includes("\ufffd")) throw new UsageError(`${source} is neither an app nor a text list of files (binary content); give an app, a folder, a list of files or an index CSV`);
+  const lines = text.split(/\r?\n/).map((l) => l.trim()).filter((l) => l && !l.startsWith("#"));
+  if (lines.length > 0 && (lines[0].toLowerCase().startsWith("file,") || lines.every((l) => l.includes(",")))) return "index";
+  // A list holds paths; JSON, XML or other structured text is not one (a path rarely has these characters).
+  const notPath = lines.find((l) => /[{}[\]"<>]/.test(l));
+  if (notPath !== undefined) throw new UsageError(`${source} is a text file but not a list of app files (a line reads "${notPath.slice(0, 40)}"); give an app, a folder, a list of files (one path a line) or an index CSV`);
+  return "list";
+}
+
 export function listInputs(source: string, report: WalkReport = { notManifests: 0 }): SweepInput[] {
-  let st;
+  let kind;
   try {
-    st = statSync(source);
-  } catch {
+    kind = sourceKind(source);
+  } catch (e) {
+    if (e instanceof UsageError) throw e;
     throw new InputError("no such file or folder", { file: source });
   }
   const out: SweepInput[] = [];
-  if (st.isDirectory()) walk(source, source, out, report);
-  else {
+  if (kind === "folder") walk(source, source, out, report);
+  else if (kind === "app") {
+    const st = statSync(source);
+    out.push({ id: source, file: source, size: st.size, mtimeMs: Math.round(st.mtimeMs) });
+  } else {
     const base = dirname(source);
     const lines = readFileSync(source, "utf8").split(/\r?\n/).map((l) => l.trim()).filter((l) => l && !l.startsWith("#"));
-    const isIndex = lines.length > 0 && (lines[0].toLowerCase().startsWith("file,") || lines.every((l) => l.includes(",")));
     lines.forEach((line, i) => {
-      if (isIndex) {
+      if (kind === "index") {
         const f = splitCsvLine(line);
         if (i === 0 && f?.[0]?.trim().toLowerCase() === "file") return;
         if (!f || !f[0]) throw new InputError(`line ${i + 1}: expected file,category`, { file: source });

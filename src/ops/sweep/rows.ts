@@ -5,6 +5,7 @@
 import { InputError } from "../../errors.js";
 import { rowToCsv } from "../../report/csv.js";
 import type { Judge, JudgeOptions } from "../../score/judge.js";
+import type { Level } from "../../score/types.js";
 import { failedRow, rowOf, type AppRow } from "../../score/row.js";
 import { readManifestFile } from "../read-manifest.js";
 
@@ -39,6 +40,9 @@ export interface ScoredLine {
   package?: string;
   risk?: number;
   band?: string;
+  fallback?: string;
+  /** The most severe finding's level. */
+  worst?: Level;
 }
 
 /** The summary fields of a row. */
@@ -49,7 +53,9 @@ export function briefOf(row: AppRow): Omit<ScoredLine, "line"> {
     ...(row.package !== undefined ? { package: row.package } : {}),
     ...(row.risk !== undefined ? { risk: row.risk } : {}),
     ...(row.band !== undefined ? { band: row.band } : {}),
-  };
+    ...(row.fallback !== undefined ? { fallback: row.fallback } : {}),
+    ...(row.counts ? { worst: row.counts.error ? "error" : row.counts.warning ? "warning" : row.counts.note ? "note" : undefined } : {}),
+  } as Omit<ScoredLine, "line">;
 }
 
 /** Scores an input and serializes the row where it was scored (a worker), so that only a string travels. */

@@ -6,14 +6,16 @@
  * modification time) and sweeps the rest. The HTML report, when asked for, is written from the output.
  */
 import { closeSync, existsSync, openSync, writeSync } from "node:fs";
-import { OutputError } from "../../errors.js";
+import { InputError, OutputError } from "../../errors.js";
 import { csvHeader } from "../../report/csv.js";
 import { sweepToHtml } from "../../report/html/sweep-report.js";
 import type { SweepTotals } from "../../report/sweep-summary.js";
 import { heatmapData } from "../../score/heatmap.js";
 import type { JudgeOptions } from "../../score/judge.js";
+import { levelRank } from "../../score/types.js";
+import type { Gates } from "../check.js";
 import type { AppRow } from "../../score/row.js";
-import { loadJudge } from "../baseline.js";
+import { loadJudge, type LoadedJudge } from "../baseline.js";
 import { outputProblem, writeFileAtomic } from "../files.js";
 import { listInputs, shardOf } from "./inputs.js";
 import { runPool } from "./pool.js";
@@ -26,12 +28,16 @@ export interface SweepOptions {
   format: SweepFormat;
   /** Baseline file; the bundled default when absent. */
   baseline?: string;
+  /** The baseline already loaded (by a caller that needed it first); read from `baseline` otherwise. */
+  loaded?: LoadedJudge;
   judge: JudgeOptions;
   jobs: number;
   resume: boolean;
   shard?: { index: number; count: number };
   /** Also write the self-contained HTML report here. */
   html?: string;
+  /** Gates, as for `check`: a finding at or above this level, or a risk above this, trips them. */
+  gates?: Gates;
   onProgress?: (done: number, total: number) => void;
 }
 
@@ -48,12 +54,18 @@ const TOP = 10;
 class Tally {
   scored = 0;
   failed = 0;
+  unknownCategory = 0;
+  gated = 0;
+  constructor(private readonly gates: Gates = {}) {}
   readonly byBand: Record<string, number> = {};
   readonly top: SweepTotals["top"] = [];
   add(r: Omit<ScoredLine, "line">): void {
     if (r.status === "scored") this.scored++;
     else this.failed++;
     if (r.band) this.byBand[r.band] = (this.byBand[r.band] ?? 0) + 1;
+    if (r.fallback === "unknown-category") this.unknownCategory++;
+    const g = this.gates;
+    if ((g.failOn && r.worst && levelRank(r.worst) >= levelRank(g.failOn)) || (g.maxRisk !== undefined && r.risk !== undefined && r.risk > g.maxRisk)) this.gated++;
     if (r.risk === undefined) return;
     const last = this.top[this.top.length - 1];
     if (this.top.length < TOP || r.risk > last.risk || (r.risk === last.risk && r.id < last.id)) {
@@ -65,11 +77,14 @@ class Tally {
 }
 
 export async function sweep(options: SweepOptions): Promise<SweepSummary> {
-  const { judge, baselinePath, baselineName } = loadJudge(options.baseline);
+  const { judge, baselinePath, baselineName } = options.loaded ?? loadJudge(options.baseline);
   const walked = { notManifests: 0 };
   let inputs = listInputs(options.source, walked);
+  if (inputs.length === 0) {
+    throw new InputError(`nothing to sweep: no APK, app bundle or manifest${walked.notManifests ? ` (${walked.notManifests} .xml file${walked.notManifests === 1 ? "" : "s"} that are not manifests passed over)` : ""}`, { file: options.source });
+  }
   if (options.shard) inputs = inputs.filter((i) => shardOf(i.id, options.shard!.count) === options.shard!.index - 1);
-  const tally = new Tally();
+  const tally = new Tally(options.gates);
   const kept = options.resume ? compactOutput(options.output, options.format, inputs, (r) => tally.add(r)) : new Set<string>();
   const todo = inputs.filter((i) => !kept.has(i.id));
 
@@ -107,6 +122,8 @@ export async function sweep(options: SweepOptions): Promise<SweepSummary> {
     inputs: inputs.length,
     skipped: kept.size,
     notManifests: walked.notManifests,
+    unknownCategory: tally.unknownCategory,
+    gated: tally.gated,
     scored: tally.scored,
     failed: tally.failed,
     byBand: tally.byBand,

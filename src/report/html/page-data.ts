@@ -5,6 +5,7 @@ export interface PageFinding {
   checkId: string;
   level: "error" | "warning" | "note";
   subject: string;
+  message?: string;
 }
 
 export interface PageRow {

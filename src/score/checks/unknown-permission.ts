@@ -1,20 +1,9 @@
 /** unknown-permission: an android.permission.* name the platform does not define. */
 import { platformPermissions } from "../../platform/permissions.js";
+import { editDistance } from "../../util/edit-distance.js";
 import type { Check } from "../types.js";
 
-/** Optimal string alignment distance (Damerau–Levenshtein with adjacent transpositions; common practice). */
-export function editDistance(a: string, b: string): number {
-  const d = Array.from({ length: a.length + 1 }, (_, i) => [i, ...new Array<number>(b.length).fill(0)]);
-  for (let j = 1; j <= b.length; j++) d[0][j] = j;
-  for (let i = 1; i <= a.length; i++) {
-    for (let j = 1; j <= b.length; j++) {
-      const cost = a[i - 1] === b[j - 1] ? 0 : 1;
-      d[i][j] = Math.min(d[i - 1][j] + 1, d[i][j - 1] + 1, d[i - 1][j - 1] + cost);
-      if (i > 1 && j > 1 && a[i - 1] === b[j - 2] && a[i - 2] === b[j - 1]) d[i][j] = Math.min(d[i][j], d[i - 2][j - 2] + 1);
-    }
-  }
-  return d[a.length][b.length];
-}
+export { editDistance };
 
 /** The platform permission nearest to `name` by edit distance, with the distance. */
 export function nearestPlatformPermission(name: string): { name: string; distance: number } {

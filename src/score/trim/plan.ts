@@ -7,7 +7,7 @@ import type { CheckResult } from "../judge.js";
 import type { PermissionOrigin } from "../merge-report.js";
 import { serviceType } from "../../platform/foreground-services.js";
 import { isOwnPermission } from "../frequency.js";
-import { checkIdsTagged } from "../registry.js";
+import { checkById, checkIdsTagged } from "../registry.js";
 import { levelRank, type Level } from "../types.js";
 
 const TRIM_CHECKS = checkIdsTagged("trim");
@@ -83,7 +83,7 @@ export function planTrim(
       if (origin?.libraries.length) c.libraries = origin.libraries;
       byPermission.set(f.subject, c);
     }
-    c.reasons.push({ checkId: f.checkId, level: f.level });
+    c.reasons.push({ checkId: f.checkId, level: f.level, message: checkById(f.checkId)?.message(f) ?? f.checkId });
     if (f.checkId === "no-effect-at-target" && typeof f.data.limitTo === "number" && c.action.kind === "delete") {
       c.action = { kind: "limit", maxSdkVersion: f.data.limitTo };
     }

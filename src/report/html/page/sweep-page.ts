@@ -136,7 +136,7 @@ function render(): void {
       for (const f of r.findings) {
         const li = el("li");
         li.appendChild(el("span", { class: `lvl-${f.level}` }, `${f.level} `));
-        li.appendChild(document.createTextNode(`${short(f.subject)} — ${f.checkId}`));
+        li.appendChild(document.createTextNode(`${short(f.subject)} (${f.checkId})${f.message ? `: ${f.message}` : ""}`));
         ul.appendChild(li);
       }
       td.appendChild(ul);
