@@ -58,5 +58,5 @@ const pageScript = (entry) =>
 const inline = (text) => JSON.stringify(text);
 writeIfChanged(
   "src/report/html/generated/page-assets.ts",
-  `${banner("src/report/html/page/")}export const SWEEP_PAGE_SCRIPT = ${inline(await pageScript("src/report/html/page/sweep-page.ts"))};\nexport const SWEEP_PAGE_CSS = ${inline(readFileSync(root + "src/report/html/page/sweep-page.css", "utf8"))};\n`,
+  `${banner("src/report/html/page/")}export const SWEEP_PAGE_SCRIPT = ${inline(await pageScript("src/report/html/page/sweep-page.ts"))};\nexport const SWEEP_PAGE_CSS = ${inline(readFileSync(root + "src/report/html/page/sweep-page.css", "utf8"))};\nexport const CHECK_PAGE_CSS = ${inline(readFileSync(root + "src/report/html/page/check-page.css", "utf8"))};\n`,
 );

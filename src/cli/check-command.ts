@@ -11,7 +11,7 @@ import type { Io } from "./io.js";
 import { judgeOptions, type JudgingCliOptions } from "./judging.js";
 
 export interface CheckCliOptions extends JudgingCliOptions {
-  format: "text" | "json" | "sarif";
+  format: "text" | "json" | "sarif" | "html";
   failOn?: Level;
   maxRisk?: number;
   records?: string;
@@ -56,7 +56,11 @@ export async function checkCommand(files: string[], o: CheckCliOptions, io: Io):
 
   const outcome = checkFiles(judge, files, options, gates, (_file, e) => io.stderr.write(`overask: ${e.describe()}\n`));
   const info = { baseline: baselineName, caution: judge.file.caution };
-  io.stdout.write(o.format === "json" ? checkToJson(outcome.runs, info) : o.format === "sarif" ? checkToSarif(outcome.runs, info) : checkToText(outcome.runs, info, pickStyle(io.stdout, io.env)));
+  if (o.format === "html") {
+    const { checkToHtml } = await import("../report/html/check-report.js");
+    const { requestedRates } = await import("../score/requested.js");
+    io.stdout.write(checkToHtml(outcome.runs.map((r) => (r.result ? { ...r, rates: requestedRates(judge, r.result) } : r)), { ...info, threshold: judge.baseline.parameters.uncommonBelow }));
+  } else io.stdout.write(o.format === "json" ? checkToJson(outcome.runs, info) : o.format === "sarif" ? checkToSarif(outcome.runs, info) : checkToText(outcome.runs, info, pickStyle(io.stdout, io.env)));
   if (outcome.failed) return EXIT.INPUT;
   return outcome.gated ? EXIT.GATE : EXIT.OK;
 }

@@ -81,7 +81,7 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
       .option("-b, --baseline <file>", "baseline file (default: the bundled baselines/default.json)")
       .addOption(new Option("-f, --format <format>", "output format").choices(formats).default("text"));
 
-  judging(program.command("check"), ["text", "json", "sarif"])
+  judging(program.command("check"), ["text", "json", "sarif", "html"])
     .description("judge apps against their category's baseline: uncommon permissions, other checks, and the risk estimate")
     .argument("[file...]", "APKs, binary or plain manifests")
     .addOption(new Option("--fail-on <level>", "exit 1 when a finding is at or above this level").choices(["error", "warning", "note"]))

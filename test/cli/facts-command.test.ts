@@ -23,8 +23,8 @@ describe("overask facts", () => {
     const { stdout } = await cli(["facts", `${APK_DIR}pocketlamp.apk`]);
     expect(stdout).toContain("org.example.pocketlamp  “Pocket Lamp”");
     expect(stdout).toMatch(/app flags\s+debuggable, cleartext traffic allowed/);
-    expect(stdout).toMatch(/READ_SMS\s+dangerous\s+hard-restricted/);
-    expect(stdout).toMatch(/ACCESS_FINE_LOCATON\s+—\s+not defined by the platform/);
+    expect(stdout).toMatch(/Runtime: the user is asked when the app uses it \(7\)\n(.*\n)*? {4}READ_SMS\s+hard-restricted/);
+    expect(stdout).toMatch(/Not defined by the platform \(2\)\n {4}ACCESS_FINE_LOCATON\s+an android\.permission name the platform/);
     expect(stdout).toMatch(/receiver\s+org\.example\.pocketlamp\.BootReceiver\n\s+exported by default \(intent filter, targetSdk < 31\)\n\s+no permission required/);
     expect(stdout).not.toMatch(/\u001b\[/); // no colour when not a terminal
   });

@@ -16,8 +16,9 @@ describe("factsToText", () => {
   });
 
   it("lists every requested permission with its platform protection level", () => {
-    expect(text).toMatch(/READ_SMS\s+dangerous/);
-    expect(text).toMatch(/SYSTEM_ALERT_WINDOW\s+signature/);
+    // Protection levels from the platform table (API 34): READ_SMS dangerous, SYSTEM_ALERT_WINDOW signature|appop.
+    expect(text).toMatch(/Runtime: the user is asked when the app uses it \(7\)\n(.*\n)*? {4}READ_SMS/);
+    expect(text).toMatch(/Special access: the user grants it in settings \(1\)\n {4}SYSTEM_ALERT_WINDOW\s+signature, .*appop/);
   });
 
   it("keeps lines within 80 columns", () => {

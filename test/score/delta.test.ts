@@ -32,7 +32,7 @@ describe("overask delta", () => {
     expect(code).toBe(EXIT.OK);
     const d = JSON.parse(stdout);
     expect(d.added.map((a: { permission: string }) => a.permission)).toEqual(["android.permission.BODY_SENSORS", "android.permission.READ_CALENDAR"]);
-    expect(d.removed).toEqual(["android.permission.VIBRATE"]);
+    expect(d.removed).toEqual([{ permission: "android.permission.VIBRATE", base: "normal", flags: ["instant"] }]); // platform table: VIBRATE is normal|instant
     expect(d.newlyUncommon.map((f: { subject: string }) => f.subject).sort()).toEqual(["android.permission.BODY_SENSORS", "android.permission.READ_CALENDAR"]);
     expect(d.specialAccess.added.map((f: { subject: string }) => f.subject)).toEqual(["org.example.case.Helper"]);
     expect(d.newlyExported.map((c: { name: string }) => c.name)).toEqual(["org.example.case.Helper", "org.example.case.Ping"]);

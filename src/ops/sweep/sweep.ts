@@ -8,17 +8,16 @@
 import { closeSync, existsSync, openSync, writeSync } from "node:fs";
 import { InputError, OutputError } from "../../errors.js";
 import { csvHeader } from "../../report/csv.js";
-import { sweepToHtml } from "../../report/html/sweep-report.js";
 import type { SweepTotals } from "../../report/sweep-summary.js";
-import { heatmapData } from "../../score/heatmap.js";
 import type { JudgeOptions } from "../../score/judge.js";
 import { levelRank } from "../../score/types.js";
 import type { Gates } from "../check.js";
 import type { AppRow } from "../../score/row.js";
 import { loadJudge, type LoadedJudge } from "../baseline.js";
-import { outputProblem, writeFileAtomic } from "../files.js";
+import { outputProblem } from "../files.js";
 import { listInputs, shardOf } from "./inputs.js";
 import { runPool } from "./pool.js";
+import { writeSweepReport } from "./report.js";
 import { compactOutput, readRows } from "./resume.js";
 import type { ScoredLine, SweepFormat } from "./rows.js";
 
@@ -134,19 +133,6 @@ export async function sweep(options: SweepOptions): Promise<SweepSummary> {
     ...(judge.scorer ? { caution: judge.file.caution } : {}),
     rows: () => readRows(options.output, options.format),
   };
-  if (options.html) {
-    const rows = summary.rows();
-    writeFileAtomic(
-      options.html,
-      sweepToHtml({
-        rows,
-        totals: { inputs: summary.inputs, scored: summary.scored, failed: summary.failed, byBand: summary.byBand },
-        heatmap: heatmapData(rows, judge.baseline),
-        baselineName,
-        caution: judge.file.caution,
-        ...(judge.scorer ? { cutPoints: judge.scorer.cuts, baseRate: judge.scorer.model.evaluation.baseRate } : {}),
-      }),
-    );
-  }
+  if (options.html) writeSweepReport({ output: options.output, format: options.format, html: options.html, loaded: { judge, baselinePath, baselineName }, inputs: inputs.length });
   return summary;
 }

@@ -22,6 +22,16 @@ export interface PageRow {
   error: string | null;
 }
 
+export interface PageSummary {
+  /** histogram[i][band]: apps with risk in [i/20, (i+1)/20), over every row. */
+  histogram: Record<string, number>[];
+  byCategory: Record<string, number>;
+  byCheck: Record<string, number>;
+  /** Whether `rows` holds every row; when not, where the full results are. */
+  complete: boolean;
+  results: string;
+}
+
 export interface PageData {
   tool: string;
   baseline: string;
@@ -31,5 +41,6 @@ export interface PageData {
   checks: { id: string; title: string }[];
   rows: PageRow[];
   heatmap: Heatmap;
+  summary: PageSummary;
   totals: { inputs: number; scored: number; failed: number; byBand: Record<string, number> };
 }

@@ -5,18 +5,18 @@
  * against the baseline. The page's script and styles are real files (page/), compiled and inlined at build
  * time; this formatter only fills in the data.
  */
-import type { Heatmap } from "../../score/heatmap.js";
 import { CHECKS } from "../../score/registry.js";
-import type { AppRow } from "../../score/row.js";
+import { EMBED_ALL_UP_TO, EMBED_TOP, type SweepDigest } from "../../score/sweep-digest.js";
 import { TOOL_VERSION } from "../../version.js";
 import { SWEEP_PAGE_CSS, SWEEP_PAGE_SCRIPT } from "./generated/page-assets.js";
 import type { PageData } from "./page-data.js";
 
 export interface SweepReportInput {
-  /** Every row of the sweep, in a stable order. */
-  rows: readonly AppRow[];
-  totals: { inputs: number; scored: number; failed: number; byBand: Record<string, number> };
-  heatmap: Heatmap;
+  /** The sweep's rows, digested (score/sweep-digest.ts): figures over all of them, and the rows to embed. */
+  digest: SweepDigest;
+  /** Where the full results are (the sweep's output file). */
+  results: string;
+  inputs: number;
   baselineName: string;
   caution: string;
   cutPoints?: { elevated?: number; high?: number };
@@ -46,7 +46,7 @@ export function sweepToHtml(input: SweepReportInput): string {
     cutPoints: input.cutPoints ?? {},
     baseRate: input.baseRate ?? null,
     checks: CHECKS.map((c) => ({ id: c.meta.id, title: c.meta.title })),
-    rows: input.rows.map((r) => ({
+    rows: input.digest.embedded.map((r) => ({
       id: r.id,
       package: r.package ?? null,
       category: r.category ?? null,
@@ -59,8 +59,9 @@ export function sweepToHtml(input: SweepReportInput): string {
       whatIf: r.whatIf ?? [],
       error: r.error?.message ?? null,
     })),
-    heatmap: input.heatmap,
-    totals: input.totals,
+    heatmap: input.digest.heatmap,
+    totals: { inputs: input.inputs, scored: input.digest.scored, failed: input.digest.failed, byBand: input.digest.byBand },
+    summary: { histogram: input.digest.histogram, byCategory: input.digest.byCategory, byCheck: input.digest.byCheck, complete: input.digest.complete, results: input.results },
   };
   const title = input.title ?? "overask sweep report";
   return `<!doctype html>
@@ -83,6 +84,7 @@ ${SWEEP_PAGE_CSS}</style>
 <div class="legend" id="histogram-legend"></div>
 
 <h2>Apps</h2>
+<p class="legend" id="partial" hidden>This page holds the ${EMBED_TOP.toLocaleString("en")} riskiest apps, the ${EMBED_TOP.toLocaleString("en")} with the most warnings and errors, and every app that could not be read (sweeps of more than ${EMBED_ALL_UP_TO.toLocaleString("en")} apps); the figures above count every app. All results: <code id="results"></code>.</p>
 <div class="filters">
   <label>Category <select id="f-category"><option value="">all</option></select></label>
   <label>Band <select id="f-band"><option value="">all</option><option>high</option><option>elevated</option><option>low</option><option value="failed">could not be read</option></select></label>
@@ -94,10 +96,10 @@ ${SWEEP_PAGE_CSS}</style>
   <thead><tr>
     <th data-key="app" aria-sort="none">App</th>
     <th data-key="category" aria-sort="none">Category</th>
-    <th data-key="risk" aria-sort="descending">Risk</th>
+    <th data-key="risk" aria-sort="descending" class="num">Risk</th>
     <th data-key="band" aria-sort="none">Band</th>
-    <th data-key="warnings" aria-sort="none">Warnings</th>
-    <th data-key="notes" aria-sort="none">Notes</th>
+    <th data-key="warnings" aria-sort="none" class="num">Warnings</th>
+    <th data-key="notes" aria-sort="none" class="num">Notes</th>
   </tr></thead>
   <tbody></tbody>
 </table>

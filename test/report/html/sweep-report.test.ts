@@ -13,7 +13,6 @@ import { FIXTURES, ROOT } from "../../helpers/paths.js";
 
 const CHROMIUM = "/usr/bin/chromium";
 const hasChromium = existsSync(CHROMIUM);
-if (!hasChromium) console.warn("HTML report browser test skipped: no /usr/bin/chromium (apt-get install chromium)");
 
 describe.runIf(hasChromium)("the sweep's HTML report in chromium", () => {
   const dir = mkdtempSync(join(tmpdir(), "overask-html-"));
@@ -68,6 +67,8 @@ describe.runIf(hasChromium)("the sweep's HTML report in chromium", () => {
     await page.click("#apps tbody tr.app");
     expect(await page.isVisible("#apps tbody tr.details")).toBe(true);
     expect(await page.textContent("#apps tbody tr.details")).toMatch(/special-access-component/);
+    // Each finding comes with its message, not only its check.
+    expect(await page.textContent("#apps tbody tr.details")).toMatch(/an accessibility service/);
 
     expect(await page.$$eval("#histogram svg rect", (r) => r.length)).toBeGreaterThan(0);
     expect(await page.textContent("#caution")).toMatch(/not evidence of intent or harm/);
@@ -78,4 +79,59 @@ describe.runIf(hasChromium)("the sweep's HTML report in chromium", () => {
     console.log(`screenshot of the HTML report: ${shot}`);
     expect(problems).toEqual([]);
   }, 60_000);
+
+  it("right-aligns the number columns' headers with their figures", async () => {
+    const page = await browser.newPage();
+    await page.goto(`file://${report}`);
+    await page.waitForSelector("#apps tbody tr.app");
+    for (const key of ["risk", "warnings", "notes"]) {
+      const edges = await page.evaluate((k) => {
+        const th = document.querySelector(`th[data-key="${k}"]`)!;
+        const col = [...th.parentElement!.children].indexOf(th);
+        const td = document.querySelector(`#apps tbody tr.app`)!.children[col];
+        // The right edge of the text itself, not of the cell.
+        const right = (el: Element) => {
+          const r = document.createRange();
+          r.selectNodeContents(el);
+          return r.getBoundingClientRect().right;
+        };
+        return [right(th), right(td)];
+      }, key);
+      expect(Math.abs(edges[0] - edges[1]), key).toBeLessThan(2);
+    }
+  });
+
+  it("stays small and opens fast for a sweep of 100,000 apps", async () => {
+    // A 100,000-row output made from the rows of the real sweep above, each under its own id and risk.
+    const { readFileSync, writeFileSync, statSync } = await import("node:fs");
+    const { writeSweepReport } = await import("../../../src/ops/sweep/report.js");
+    const { loadJudge } = await import("../../../src/ops/baseline.js");
+    const real = readFileSync(join(dir, "r.jsonl"), "utf8").trim().split("\n").map((l) => JSON.parse(l));
+    const lines: string[] = [];
+    for (let i = 0; i < 100_000; i++) {
+      const r = real[i % real.length];
+      const risk = ((i * 7919) % 1000) / 1000;
+      lines.push(JSON.stringify(i % 997 === 0 ? { id: `inv/${i}.apk`, size: 1, mtimeMs: 1, status: "failed", error: { kind: "ArchiveError", message: "damaged" } } : { ...r, id: `inv/${i}.apk`, risk, band: risk >= 0.6 ? "high" : risk >= 0.3 ? "elevated" : "low" }));
+    }
+    const out = join(dir, "big.jsonl");
+    writeFileSync(out, `${lines.join("\n")}\n`);
+    const html = join(dir, "big.html");
+    writeSweepReport({ output: out, format: "jsonl", html, loaded: loadJudge(`${ROOT}baselines/harbourview-demo.json`), inputs: 100_000 });
+    const bytes = statSync(html).size;
+    expect(bytes).toBeLessThan(5 * 1024 * 1024);
+    const page = await browser.newPage();
+    const problems: string[] = [];
+    page.on("pageerror", (e) => problems.push(e.message));
+    const started = Date.now();
+    await page.goto(`file://${html}`, { waitUntil: "load" });
+    const loadMs = Date.now() - started;
+    console.log(`100,000-app sweep report: ${(bytes / 1024 / 1024).toFixed(2)} MB, load event after ${loadMs} ms`);
+    expect(loadMs).toBeLessThan(3000); // the issue's goal, in the browser test as asked (not a unit timing)
+    expect(problems).toEqual([]);
+    expect(await page.isVisible("#partial")).toBe(true);
+    expect(await page.textContent("#meta")).toMatch(/^100000 apps/);
+    // The tiles and the histogram count every app, not only the rows the page holds.
+    const bars = await page.$$eval("#histogram svg rect title", (ts) => ts.map((t) => Number(/: (\d+) /.exec(t.textContent ?? "")?.[1] ?? 0)).reduce((a, b) => a + b, 0));
+    expect(bars).toBe(100_000 - Math.ceil(100_000 / 997));
+  }, 180_000);
 });

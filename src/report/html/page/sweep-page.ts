@@ -17,7 +17,11 @@ function el(tag: string, attrs?: Record<string, string> | null, text?: string | 
   return e;
 }
 
-byId("meta").textContent = `${data.rows.length} apps · baseline: ${data.baseline} · ${data.tool}`;
+byId("meta").textContent = `${data.totals.inputs} apps · baseline: ${data.baseline} · ${data.tool}`;
+if (!data.summary.complete) {
+  byId("partial").hidden = false;
+  byId("results").textContent = data.summary.results;
+}
 byId("caution").textContent = data.caution;
 
 const tiles = byId("tiles");
@@ -39,9 +43,8 @@ for (const [label, n, cls] of tileList) {
 function drawHistogram(): void {
   const order = ["low", "elevated", "high"] as const;
   type Band = (typeof order)[number];
-  const bins: Record<Band, number>[] = [];
-  for (let k = 0; k < 20; k++) bins.push({ low: 0, elevated: 0, high: 0 });
-  for (const r of data.rows) if (r.risk != null) bins[Math.min(19, Math.floor(r.risk * 20))][(r.band as Band) || "low"]++;
+  // Counted over every app of the sweep, not only the rows this page holds.
+  const bins: Record<Band, number>[] = data.summary.histogram.map((b) => ({ low: b.low ?? 0, elevated: b.elevated ?? 0, high: b.high ?? 0 }));
   const totals = bins.map((b) => b.low + b.elevated + b.high);
   const max = Math.max(...totals, 1);
   const W = 740, H = 200, L = 40, R = 30, B = 28, bw = (W - L - R) / 20;
@@ -80,10 +83,10 @@ drawHistogram();
 
 // Table: sorting, filtering, expandable rows.
 const categoryFilter = byId<HTMLSelectElement>("f-category");
-for (const c of [...new Set(data.rows.map((r) => r.category).filter((c): c is string => !!c))].sort()) categoryFilter.appendChild(el("option", { value: c }, c));
-categoryFilter.appendChild(el("option", { value: "(pooled)" }, "(no category: pooled)"));
+for (const c of Object.keys(data.summary.byCategory).filter((c) => c !== "(pooled)").sort()) categoryFilter.appendChild(el("option", { value: c }, `${c} (${data.summary.byCategory[c]})`));
+categoryFilter.appendChild(el("option", { value: "(pooled)" }, `(no category: pooled) (${data.summary.byCategory["(pooled)"] ?? 0})`));
 const checkFilter = byId<HTMLSelectElement>("f-check");
-for (const c of data.checks) checkFilter.appendChild(el("option", { value: c.id }, c.id));
+for (const c of data.checks) checkFilter.appendChild(el("option", { value: c.id }, `${c.id} (${data.summary.byCheck[c.id] ?? 0})`));
 const bandFilter = byId<HTMLSelectElement>("f-band");
 const textFilter = byId<HTMLInputElement>("f-text");
 

@@ -1,0 +1,75 @@
+/**
+ * `check --format html` in a real headless browser (Debian's chromium, playwright-core): one self-contained
+ * page, no console errors, no network requests, findings grouped by level with their explanations, a bar
+ * per judged permission, and a print layout. A screenshot is saved for a person to look at. Skipped,
+ * saying so, without chromium.
+ */
+import { existsSync, mkdtempSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { chromium, type BrowserContext } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { cli } from "../../helpers/cli.js";
+import { APK_DIR } from "../../helpers/paths.js";
+
+const CHROMIUM = "/usr/bin/chromium";
+
+describe.runIf(existsSync(CHROMIUM))("the check report in chromium", () => {
+  const dir = mkdtempSync(join(tmpdir(), "overask-check-html-"));
+  const page1 = join(dir, "check.html");
+  let browser: BrowserContext;
+
+  beforeAll(async () => {
+    const { code, stdout } = await cli(["check", "-c", "TOOLS", "-f", "html", `${APK_DIR}pocketlamp.apk`, `${APK_DIR}snapshare.apk`, join(dir, "missing.apk")]);
+    expect(code).toBe(3); // one input could not be read; the page still holds the others
+    writeFileSync(page1, stdout);
+    browser = await chromium.launchPersistentContext(join(dir, "profile"), {
+      executablePath: CHROMIUM,
+      headless: true,
+      viewport: { width: 1000, height: 1400 },
+      args: ["--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
+    });
+  }, 60_000);
+
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  it("shows each app's header, risk and caution, grouped findings and permission bars, with no errors or requests", async () => {
+    const page = await browser.newPage();
+    const problems: string[] = [];
+    const requests: string[] = [];
+    page.on("console", (m) => {
+      if (m.type() === "error" || m.type() === "warning") problems.push(m.text());
+    });
+    page.on("pageerror", (e) => problems.push(e.message));
+    page.on("request", (r) => requests.push(r.url()));
+    await page.goto(`file://${page1}`);
+    expect(problems).toEqual([]);
+    expect(requests.filter((u) => !u.startsWith("file://"))).toEqual([]);
+    expect(await page.$$eval("section.app h2", (h) => h.map((x) => x.textContent))).toEqual(["org.example.pocketlamp — Pocket Lamp", expect.stringMatching(/^org\.example\.snapshare — Snapshare/)]);
+    expect(await page.textContent("body")).toMatch(/missing\.apk: no such file/);
+    const lamp = page.locator("section.app").first();
+    expect(await lamp.locator(".risk .caution").textContent()).toMatch(/not evidence of intent or harm/);
+    expect(await lamp.locator("h4").allTextContents()).toEqual(["Warnings (4)", "Notes (6)"]);
+    expect(await lamp.locator("ul.findings li").first().textContent()).toMatch(/READ_SMS\s*\(warning: sensitive-uncommon\)\s*18 of 2318 TOOLS apps request it/);
+    // A bar for each requested permission frequency judges; READ_SMS's is red (uncommon).
+    expect(await lamp.locator("table.perms tbody tr").count()).toBe(14);
+    expect(await lamp.locator("tr:has-text('READ_SMS') .bar.uncommon").count()).toBe(1);
+    expect(await page.locator("section.app").nth(1).locator("td:has-text('declared by this app')").count()).toBe(1);
+    const shot = join(dir, "check.png");
+    await page.screenshot({ path: shot, fullPage: true });
+    console.log(`screenshot of the check report: ${shot}`);
+  }, 60_000);
+
+  it("prints each app on its own pages, without the table of contents", async () => {
+    const page = await browser.newPage();
+    await page.goto(`file://${page1}`);
+    await page.emulateMedia({ media: "print" });
+    expect(await page.$eval("nav.toc", (n) => getComputedStyle(n).display)).toBe("none");
+    expect(await page.$$eval("section.app", (s) => s.map((x) => getComputedStyle(x).breakBefore))).toEqual(["auto", "page"]);
+    const pdf = join(dir, "check.pdf");
+    await page.pdf({ path: pdf });
+    expect(existsSync(pdf)).toBe(true);
+  }, 60_000);
+});
