@@ -66,8 +66,8 @@ describe.runIf(existsSync(CHROMIUM))("the check report in chromium", () => {
     const page = await browser.newPage();
     await page.goto(`file://${page1}`);
     await page.emulateMedia({ media: "print" });
-    expect(await page.$eval("nav.toc", (n) => getComputedStyle(n).display)).toBe("none");
-    expect(await page.$$eval("section.app", (s) => s.map((x) => getComputedStyle(x).breakBefore))).toEqual(["auto", "page"]);
+    expect(await page.$eval("nav.toc", (n) => (globalThis as any).getComputedStyle(n).display)).toBe("none");
+    expect(await page.$$eval("section.app", (s) => s.map((x) => (globalThis as any).getComputedStyle(x).breakBefore))).toEqual(["auto", "page"]);
     const pdf = join(dir, "check.pdf");
     await page.pdf({ path: pdf });
     expect(existsSync(pdf)).toBe(true);

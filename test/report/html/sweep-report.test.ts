@@ -85,15 +85,17 @@ describe.runIf(hasChromium)("the sweep's HTML report in chromium", () => {
     await page.goto(`file://${report}`);
     await page.waitForSelector("#apps tbody tr.app");
     for (const key of ["risk", "warnings", "notes"]) {
+      // Runs in the page (DOM types are not part of this project's Node build, hence `any`).
       const edges = await page.evaluate((k) => {
-        const th = document.querySelector(`th[data-key="${k}"]`)!;
-        const col = [...th.parentElement!.children].indexOf(th);
-        const td = document.querySelector(`#apps tbody tr.app`)!.children[col];
+        const doc = (globalThis as any).document;
+        const th = doc.querySelector(`th[data-key="${k}"]`);
+        const col = Array.prototype.indexOf.call(th.parentElement.children, th);
+        const td = doc.querySelector("#apps tbody tr.app").children[col];
         // The right edge of the text itself, not of the cell.
-        const right = (el: Element) => {
-          const r = document.createRange();
+        const right = (el: unknown) => {
+          const r = doc.createRange();
           r.selectNodeContents(el);
-          return r.getBoundingClientRect().right;
+          return r.getBoundingClientRect().right as number;
         };
         return [right(th), right(td)];
       }, key);
