@@ -102,7 +102,7 @@ const COVERED_ELSEWHERE: Record<string, string> = {
   "baseline/corpus/types.ts": "types only",
   "baseline/corpus/wide-csv.ts": "test/baseline/corpus.test.ts",
   "baseline/model.ts": "test/baseline/learn.test.ts",
-  "baseline/model-risk.ts": "test/score/risk.test.ts",
+  "baseline/atypicality.ts": "test/score/risk.test.ts",
   "score/judge.ts": "test/score/checks/exported-unguarded.test.ts",
   "score/types.ts": "types only",
   "score/heatmap-types.ts": "types only",

@@ -7,16 +7,18 @@ import { BaselineError } from "../errors.js";
 import { PLATFORM_TABLE_VERSION } from "../platform/permissions.js";
 import { TOOL_VERSION } from "../version.js";
 import { CountTable, type SerializedCounts } from "./counts.js";
+import type { AtypicalityTable } from "./atypicality.js";
 import { corpusEra, type BaselineEra } from "./era.js";
 import type { RiskModel } from "./model.js";
 import { Baseline, type RateParameters } from "./rates.js";
 
 export const BASELINE_FORMAT = "overask-baseline";
-export const BASELINE_SCHEMA_VERSION = 1;
+/** 2: the per-permission bounded model, atypicality distributions, validation results. */
+export const BASELINE_SCHEMA_VERSION = 2;
 
 export interface InputProvenance {
   path: string;
-  role: "frequencies" | "labels" | "frequencies+labels";
+  role: "frequencies" | "labels" | "frequencies+labels" | "validation";
   format: string;
   licence?: string;
   rows: number;
@@ -33,10 +35,8 @@ export interface StoredModel extends RiskModel {
   corpusLicence?: string;
   /** The labeled corpus's full citation (provenance only; statements use `corpus`). */
   corpusCitation?: string;
-  /** `category`: features against each app's category; `pooled`: the labeled corpus had no categories. */
+  /** `category`: training rows' terms against their category; `pooled`: the labeled corpus had no categories. Scoring always uses the app's category. */
   featureBasis: "category" | "pooled";
-  /** Permissions the labeled corpus could record; features count only these. Absent: any permission. */
-  vocabulary?: string[];
   /** Present when the model was trained on a seeded stratified sample of the labeled rows. */
   sample?: { of: number; taken: number; seed: number };
 }
@@ -52,6 +52,8 @@ export interface BaselineFile {
   counts: SerializedCounts;
   /** The newest platform level the corpus speaks for (absent in files written before it was kept: computed on load). */
   era?: BaselineEra;
+  /** Summed-surprisal percentiles of the baseline's own apps, per category: the atypicality scale. */
+  atypicality?: AtypicalityTable;
   model: StoredModel | null;
   caution: string;
 }

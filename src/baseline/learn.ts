@@ -9,9 +9,10 @@ import { CountTable } from "./counts.js";
 import { corpusEra } from "./era.js";
 import { openCorpus, type CorpusOptions, type CorpusRecord, type CorpusReport, type CorpusSource } from "./corpus/index.js";
 import { isDangerous } from "../platform/sensitivity.js";
-import { appFeatures, FEATURE_NAMES } from "./features.js";
-import { trainRiskModel, type TrainingRow } from "./model.js";
-import { Baseline, DEFAULT_RATE_PARAMETERS, type RateParameters } from "./rates.js";
+import { atypicalityTable } from "./atypicality.js";
+import { appTerms } from "./features.js";
+import { trainRiskModel, validateModel, type TrainingRow } from "./model.js";
+import { Baseline, DEFAULT_RATE_PARAMETERS, type Exclusion, type RateParameters } from "./rates.js";
 
 export interface LearnOptions {
   /** Corpora for category frequencies (rows need a category). */
@@ -22,13 +23,15 @@ export interface LearnOptions {
   labelsName?: string;
   /** The labeled corpus's full citation, kept in the model's provenance (not in risk statements). */
   labelsCitation?: string;
+  /** Labeled corpora the model never saw, scored after training and recorded in the baseline. */
+  validate?: { source: CorpusSource; options: CorpusOptions; name?: string; licence?: string }[];
   /** When the frequency corpus's apps were collected (e.g. "2020"), recorded with the era. */
   corpusYears?: string;
   parameters?: Partial<RateParameters>;
   aliases?: Map<string, string>;
   /** The run fails when a corpus rejects more than this share of its rows. */
   rejectLimit?: number;
-  model?: { seed?: number; folds?: number; steps?: number; maxSteps?: number; learningRate?: number; maxRows?: number };
+  model?: { seed?: number; folds?: number; maxRows?: number };
   createdAt?: Date;
   /** Progress of reading, per corpus. */
   onProgress?: (source: string, done: number, total: number) => void;
@@ -42,7 +45,49 @@ export interface LearnResult {
   noModel?: string;
 }
 
-export const DEFAULT_MAX_TRAINING_ROWS = 5_000;
+/** Labeled rows above this are sampled (seeded, stratified); below it, every row trains the model. */
+export const DEFAULT_MAX_TRAINING_ROWS = 200_000;
+/** Apps of the frequency corpora kept (seeded reservoir) for the atypicality percentiles. */
+export const ATYPICALITY_SAMPLE = 100_000;
+
+/** A uniform, seeded reservoir sample of at most `capacity` items. */
+class Reservoir<T> {
+  readonly items: T[] = [];
+  seen = 0;
+  private readonly rand;
+  constructor(private readonly capacity: number, seed: number) {
+    this.rand = seededRandom(seed ^ 0xa7);
+  }
+  offer(item: T): void {
+    this.seen++;
+    if (this.items.length < this.capacity) this.items.push(item);
+    else {
+      const j = Math.floor(this.rand() * this.seen);
+      if (j < this.capacity) this.items[j] = item;
+    }
+  }
+}
+
+/** A labeled corpus without a column list: the permissions requested by at least this many labeled rows get a weight. */
+export const VOCABULARY_MIN_ROWS = 5;
+
+function vocabularyOf(records: readonly CorpusRecord[]): string[] {
+  const n = new Map<string, number>();
+  for (const r of records) for (const p of r.permissions) n.set(p, (n.get(p) ?? 0) + 1);
+  return [...n].filter(([, k]) => k >= VOCABULARY_MIN_ROWS).map(([p]) => p).sort();
+}
+
+/** A labeled record as the model sees it: vocabulary indicators, category terms, reference scores. */
+function trainingRow(baseline: Baseline, vocabulary: readonly string[], record: CorpusRecord, exclude?: Exclusion): TrainingRow {
+  const index = new Map(vocabulary.map((p, j) => [p, j]));
+  const terms = appTerms(baseline, record.category, record.permissions, exclude);
+  return {
+    label: record.label!,
+    indicators: record.permissions.map((p) => index.get(p)).filter((j): j is number => j !== undefined),
+    terms,
+    references: { dangerousCount: record.permissions.filter(isDangerous).length, permissionCount: record.permissions.length, surprisal: appTerms(baseline, undefined, record.permissions, exclude)[2] },
+  };
+}
 export const DEFAULT_REJECT_LIMIT = 0.05;
 
 /** Keeps a uniform, seeded sample of up to `capacity` records per label (reservoir sampling). */
@@ -100,6 +145,7 @@ export async function learn(options: LearnOptions): Promise<LearnResult> {
   const seed = options.model?.seed ?? 1;
   const sample = new LabeledSample(options.model?.maxRows ?? DEFAULT_MAX_TRAINING_ROWS, seed);
   const counts = new CountTable();
+  const frequencyApps = new Reservoir<{ category?: string; permissions: string[] }>(ATYPICALITY_SAMPLE, seed);
   const reports: CorpusReport[] = [];
   const inputs: InputProvenance[] = [];
   const useFrequencyLabels = !options.labels;
@@ -111,6 +157,7 @@ export async function learn(options: LearnOptions): Promise<LearnResult> {
       { ...f.options, aliases, requireCategory: true },
       (r) => {
         counts.add(r);
+        frequencyApps.offer({ ...(r.category !== undefined ? { category: r.category } : {}), permissions: r.permissions });
         if (useFrequencyLabels && r.label !== undefined) sample.offer(r, true);
       },
       options,
@@ -136,7 +183,7 @@ export async function learn(options: LearnOptions): Promise<LearnResult> {
     labelLicence = options.frequencies.find((f) => f.source.name === labelReport?.source)?.licence;
   }
 
-  // The era rule applies in training as in judging: features of permissions newer than the corpus use the same rule.
+  // The era rule applies in training as in judging: terms of permissions newer than the corpus use the same rule.
   const era = corpusEra(counts, options.corpusYears);
   const baseline = new Baseline(counts, parameters, new Map(), era.api);
   let model: StoredModel | null = null;
@@ -144,46 +191,46 @@ export async function learn(options: LearnOptions): Promise<LearnResult> {
   const { rows: picked, of } = sample.rows();
   const positives = picked.filter((p) => p.record.label === 1).length;
   if (picked.length === 0) noModel = "no labeled rows: the baseline has frequencies only";
-  else if (positives === 0 || positives === picked.length) noModel = "the labeled rows are all of one label: no model can be learned";
-  else {
-    const vocabulary = labelReport?.vocabulary ? new Set(labelReport.vocabulary) : undefined;
+  else if (positives === 0 || positives === picked.length) {
+    throw new CorpusError(`the labeled rows are all ${positives ? "flagged" : "unflagged"}: no risk model can be learned; check --label-field and --positive`, { file: labelReport?.source ?? "the labeled corpus" });
+  } else {
+    const vocabulary = labelReport?.vocabulary ?? vocabularyOf(picked.map((p) => p.record));
     const hasCategories = picked.some((p) => p.record.category !== undefined);
     // Cross-fitting: a row that is also in the frequency counts is scored against counts without it.
-    const surprisalAt = FEATURE_NAMES.indexOf("surprisal");
-    const rows: TrainingRow[] = picked.map(({ record, inBaseline }) => {
-      const counted = vocabulary ? record.permissions.filter((p) => vocabulary.has(p)) : record.permissions;
-      const features = appFeatures(baseline, record.category, counted, {
-        exclude: inBaseline ? { category: record.category, permissions: new Set(record.permissions) } : undefined,
-      });
-      return {
-        label: record.label!,
-        features,
-        references: { dangerousCount: counted.filter(isDangerous).length, surprisal: features[surprisalAt] },
-      };
-    });
-    const trained = trainRiskModel(rows, {
-      featureNames: FEATURE_NAMES,
-      seed,
-      folds: options.model?.folds ?? 5,
-      steps: options.model?.steps ?? 100,
-      maxSteps: options.model?.maxSteps ?? 3200,
-      ...(options.model?.learningRate !== undefined ? { learningRate: options.model.learningRate } : {}),
-    });
+    const rows = picked.map(({ record, inBaseline }) =>
+      trainingRow(baseline, vocabulary, record, inBaseline ? { ...(record.category !== undefined ? { category: record.category } : {}), permissions: new Set(record.permissions) } : undefined),
+    );
+    const trained = trainRiskModel(rows, { vocabulary, seed, folds: options.model?.folds ?? 5 });
+    for (const v of options.validate ?? []) {
+      const name = v.name ?? v.source.name;
+      const vrows: TrainingRow[] = [];
+      const rep = await drain(v.source, { ...v.options, aliases, requireCategory: false }, (r) => {
+        if (r.label !== undefined) vrows.push(trainingRow(baseline, vocabulary, r));
+      }, options, rejectLimit);
+      reports.push(rep);
+      inputs.push(provenance(rep, "validation", v.licence));
+      const recorded = rep.vocabulary ? new Set(rep.vocabulary) : new Set(vrows.flatMap((r) => r.indicators.map((j) => vocabulary[j])));
+      const overlap = vocabulary.filter((p) => recorded.has(p)).length / vocabulary.length;
+      if (overlap === 0) throw new CorpusError("records none of the labeled corpus's permissions: the model cannot be validated on it (are the permission columns named as the platform names them?)", { file: v.source.name });
+      const pos = vrows.filter((r) => r.label === 1).length;
+      if (pos === 0 || pos === vrows.length) throw new CorpusError(`its labeled rows are all ${pos ? "flagged" : "unflagged"}: no ROC AUC can be computed; check --validate-label-field and --positive`, { file: v.source.name });
+      trained.validation.push(validateModel(trained, vrows, name, overlap));
+    }
     model = {
       ...trained,
       corpus: options.labelsName ?? labelReport?.source ?? "the labeled corpus",
       ...(labelLicence ? { corpusLicence: labelLicence } : {}),
       ...(options.labelsCitation ? { corpusCitation: options.labelsCitation } : {}),
       featureBasis: hasCategories ? "category" : "pooled",
-      ...(vocabulary ? { vocabulary: [...vocabulary].sort() } : {}),
       ...(of > picked.length ? { sample: { of, taken: picked.length, seed } } : {}),
     };
   }
+  const atypicality = atypicalityTable(baseline, frequencyApps.items);
   const notes: string[] = reports.flatMap((r) => r.notes.map((n) => `${r.source}: ${n}`));
   if (noModel) notes.push(noModel);
   if (model?.sample) notes.push(`the model was trained on a seeded stratified sample of ${model.sample.taken} of ${model.sample.of} labeled rows`);
-  for (const d of model?.dropped ?? []) notes.push(`feature ${d.feature} was dropped: its fitted coefficient was negative (${d.coefficient.toFixed(4)})`);
-  if (model && !model.training.converged) notes.push(`the model's fit did not converge (largest gradient ${model.training.gradientMax.toExponential(2)}); raise --steps`);
+  if (model && !model.training.converged) notes.push(`the model's fit did not fully converge (KKT residual ${model.training.kktResidual.toExponential(2)} after ${model.training.iterations} iterations)`);
+  if (frequencyApps.seen > frequencyApps.items.length) notes.push(`atypicality percentiles come from a seeded sample of ${frequencyApps.items.length} of ${frequencyApps.seen} apps`);
   for (const c of baseline.categorySummary()) if (c.pooled) notes.push(`category ${c.name} has ${c.apps} apps, below --min-support ${parameters.minSupport}: it uses the pooled baseline`);
 
   const file = newBaselineFile(
@@ -192,6 +239,7 @@ export async function learn(options: LearnOptions): Promise<LearnResult> {
       provenance: { inputs, notes },
       counts: counts.toJSON(),
       era,
+      atypicality,
       model,
     },
     options.createdAt,

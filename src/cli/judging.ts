@@ -12,6 +12,7 @@ export interface JudgingCliOptions {
   categories?: string;
   baseline?: string;
   level?: Map<string, Level | "off">;
+  prevalence?: number;
 }
 
 /**
@@ -33,5 +34,6 @@ export function judgeOptions(o: JudgingCliOptions, baseline?: Baseline): JudgeOp
     if (!checkById(id)) throw new UsageError(`--level names an unknown check "${id}"; the checks are ${CHECKS.map((c) => c.meta.id).join(", ")}`);
   }
   options.levels = o.level ?? new Map();
+  if (o.prevalence !== undefined) options.prevalence = o.prevalence;
   return options;
 }

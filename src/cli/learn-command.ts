@@ -35,6 +35,11 @@ export interface LearnCliOptions {
   maxTrainRows: number;
   rejectLimit: number;
   rejects?: string;
+  validate?: string[];
+  validateName?: string[];
+  validateLabelField?: string;
+  validatePositive?: string[];
+  validateLicence?: string;
 }
 
 /** The corpus-reading options, the same for every corpus of a run. */
@@ -72,6 +77,17 @@ export async function learnCommand(corpora: string[], o: LearnCliOptions, io: Io
       model: { seed: o.seed, folds: o.folds, maxRows: o.maxTrainRows },
       onProgress: (source, done, total) => progress.update(source, done, total),
       ...(o.rejects ? { rejects: o.rejects } : {}),
+      ...(o.validate?.length
+        ? {
+            validate: o.validate.map((path, i) => ({
+              path,
+              // Validation corpora keep only the columns that name platform permissions (they rarely share a column list).
+              options: { ...options, ...(o.validateLabelField ? { labelField: o.validateLabelField } : {}), ...(o.validatePositive ? { positive: o.validatePositive } : {}), columnsFrom: undefined, columnsKind: undefined, idField: undefined, platformColumnsOnly: true },
+              ...(o.validateName?.[i] ? { name: o.validateName[i] } : {}),
+              ...(o.validateLicence ? { licence: o.validateLicence } : {}),
+            })),
+          }
+        : {}),
       output: o.output,
     });
     progress.stop();

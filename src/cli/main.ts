@@ -57,6 +57,11 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
     .option("--labels-name <text>", "how risk statements name the labeled corpus (default: its path)")
     .option("--labels-citation <text>", "the labeled corpus's full citation, kept in the baseline's provenance")
     .option("--corpus-years <years>", "when the frequency corpus's apps were collected (e.g. 2020), recorded with the baseline's era")
+    .option("--validate <corpus>", "a labeled corpus the model never sees in training, scored after it and recorded in the baseline (repeatable)", collect)
+    .option("--validate-name <text>", "how outputs name each --validate corpus, in order (repeatable)", collect)
+    .option("--validate-label-field <name>", "label field or column of the --validate corpora (default: --label-field)")
+    .option("--validate-positive <value>", "label value meaning flagged in the --validate corpora (repeatable; default: --positive)", collect)
+    .option("--validate-licence <text>", "licence of the --validate corpora, recorded in the baseline")
     .option("--alias <from=to>", "category alias, e.g. Educational=Education (repeatable)", collectPairs)
     .addOption(new Option("--prior <method>", "shrinkage toward the pooled rate").choices(["fixed", "empirical-bayes"]).default("fixed"))
     .option("--prior-strength <n>", "fixed: pooled pseudo-apps per category; empirical-bayes: the cap", nonNegative, 10)
@@ -65,7 +70,7 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
     .option("--uncommon-below <rate>", "uncommon: the interval's upper end is below this rate", openUnit, 0.05)
     .option("--seed <n>", "seed for sampling and cross-validation folds", anInteger, 1)
     .option("--folds <k>", "cross-validation folds", wholeNumber(2), 5)
-    .option("--max-train-rows <n>", "train on a seeded stratified sample above this many labeled rows", wholeNumber(10), 5000)
+    .option("--max-train-rows <n>", "train on a seeded stratified sample above this many labeled rows", wholeNumber(10), 200000)
     .option("--reject-limit <share>", "fail when a corpus rejects more than this share of its rows", closedUnit, 0.05)
     .option("--rejects <file>", "write every rejected row (file, line, reason) to this file")
     .action(async (corpora: string[], o: import("./learn-command.js").LearnCliOptions) => {
@@ -79,6 +84,7 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
       .option("-c, --category <name>", "category to judge against (otherwise --categories, then android:appCategory, then all categories pooled)")
       .option("--categories <file>", "CSV mapping package names to categories (package,category)")
       .option("-b, --baseline <file>", "baseline file (default: the bundled baselines/default.json)")
+      .option("--prevalence <share>", "share of flagged apps in your population: shift the risk to it from the training base rate", openUnit)
       .addOption(new Option("-f, --format <format>", "output format").choices(formats).default("text"));
 
   judging(program.command("check"), ["text", "json", "sarif", "html"])
@@ -112,6 +118,7 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
     .option("--categories <file>", "CSV mapping package names to categories (package,category)")
     .option("-b, --baseline <file>", "baseline file (default: the bundled baselines/default.json)")
     .option("--level <check=level>", "override a check's level (repeatable)", collectLevels)
+    .option("--prevalence <share>", "share of flagged apps in your population: shift the risk to it from the training base rate", openUnit)
     .addOption(new Option("--fail-on <level>", "exit 1 when an app has a finding at or above this level").choices(["error", "warning", "note"]))
     .option("--max-risk <p>", "exit 1 when an app's risk is above this probability", closedUnit)
     .action(async (source: string, o: import("./sweep-command.js").SweepCliOptions) => {

@@ -7,11 +7,13 @@ import { csvCell } from "../util/csv.js";
 import { readBaselineFile, writeBaselineFile } from "./baseline.js";
 import { corpusFile, corpusReaderOptions, type CorpusFileOptions } from "./corpus.js";
 
-export interface LearnFilesOptions extends Omit<LearnOptions, "frequencies" | "labels" | "onReject"> {
+export interface LearnFilesOptions extends Omit<LearnOptions, "frequencies" | "labels" | "validate" | "onReject"> {
   /** Corpus files for category frequencies, with how to read them. */
   frequencies: { path: string; options: CorpusFileOptions; licence?: string }[];
   /** A separate labeled corpus file for the risk model. */
   labels?: { path: string; options: CorpusFileOptions; licence?: string };
+  /** Labeled corpus files the model never sees in training, scored after it. */
+  validate?: { path: string; options: CorpusFileOptions; name?: string; licence?: string }[];
   /** Write every rejected row (file, line, reason) to this CSV file. */
   rejects?: string;
   /** Write the baseline here (atomically); without it, nothing is written. */
@@ -20,7 +22,7 @@ export interface LearnFilesOptions extends Omit<LearnOptions, "frequencies" | "l
 
 /** Learns a baseline from corpus files. */
 export async function learnFiles(o: LearnFilesOptions): Promise<LearnResult> {
-  const { frequencies, labels, rejects, output, ...rest } = o;
+  const { frequencies, labels, validate, rejects, output, ...rest } = o;
   if (rejects) {
     try {
       writeFileSync(rejects, "file,line,reason\n");
@@ -37,6 +39,7 @@ export async function learnFiles(o: LearnFilesOptions): Promise<LearnResult> {
     ...rest,
     frequencies: frequencies.map(source),
     ...(labels ? { labels: source(labels) } : {}),
+    ...(validate ? { validate: validate.map((v) => ({ ...source(v), ...(v.name ? { name: v.name } : {}) })) } : {}),
     ...(rejects ? { onReject: (file: string, line: number, reason: string) => appendFileSync(rejects, `${csvCell(file)},${line},${csvCell(reason)}\n`) } : {}),
   });
   if (output) writeBaselineFile(output, result.file);

@@ -54,36 +54,30 @@ export function categoryText(c: CategoryChoice): string {
   return `all categories pooled: ${why}`;
 }
 
-/** A feature's value in words, for the explanation (features.ts defines them). */
-function featureText(feature: string, value: number): string {
-  const count = Math.round(Math.expm1(value));
-  switch (feature) {
-    case "commonOther":
-      return `${count} requested permission${count === 1 ? "" : "s"} common for the category`;
-    case "commonSensitive":
-      return `${count} sensitive permission${count === 1 ? "" : "s"} common for the category`;
-    case "uncommonOther":
-      return `${count} permission${count === 1 ? "" : "s"} uncommon for the category`;
-    case "uncommonSensitive":
-      return `${count} sensitive permission${count === 1 ? "" : "s"} uncommon for the category`;
-    case "anyUncommonSensitive":
-      return value > 0 ? "at least one sensitive permission uncommon for the category" : "no sensitive permission uncommon for the category";
-    case "surprisal":
-      return `how unusual the whole set is (summed surprisal ${value.toFixed(1)})`;
-    default:
-      return `${feature} = ${value}`;
-  }
+/** A contribution in words: a permission's whole effect, or a category term. */
+function contributionText(c: RiskEstimate["contributions"][number], category: string | undefined): string {
+  const lo = `+${c.logOdds.toFixed(2)} log-odds`;
+  if (c.kind === "permission") return `${short(c.name)}  ${lo}`;
+  const group = category ?? "all categories";
+  const what = { uncommonSensitive: `sensitive permissions uncommon for ${group}`, uncommonOther: `other permissions uncommon for ${group}`, surprisal: `how unusual the whole set is for ${group}` }[c.name] ?? c.description;
+  return `${what}  ${lo}`;
 }
 
 export function riskLines(r: RiskEstimate, s: Style, width = 80): string[] {
   const out: string[] = [];
   const bandText = r.band === "high" ? s.alert("high") : r.band === "elevated" ? s.warn("elevated") : "low";
-  out.push(`${s.bold("Risk")}  ${pct(r.probability)} — ${bandText}  ${s.dim(`(base rate ${pct(r.baseRate)})`)}`);
-  out.push(...wrap(`  ${r.caution}`, width, 2).map((l) => s.dim(l)));
-  const top = r.contributions.filter((c) => c.logOdds > 0).slice(0, 3);
+  out.push(`${s.bold("Risk")}  ${pct(r.probability)} — ${bandText}  ${s.dim(`(base rate ${pct(r.baseRate)}; likelihood ratio ${r.likelihoodRatio.toFixed(2)})`)}`);
+  if (r.prevalence) {
+    const pb = r.prevalence.band === "high" ? s.alert("high") : r.prevalence.band === "elevated" ? s.warn("elevated") : "low";
+    out.push(...wrap(`  at a prevalence of ${pct(r.prevalence.share)} (--prevalence): ${pct(r.prevalence.probability)} — ${pb}`, width, 4));
+  }
+  if (r.atypicality) out.push(...wrap(`  atypicality: more atypical than ${Math.floor(r.atypicality.percentile)}% of ${r.atypicality.category ?? "all"} apps in the baseline (no labels involved)`, width, 4));
+  const quality = [`in-corpus ROC AUC ${r.quality.inCorpus.toFixed(2)}`, ...r.quality.validation.map((v) => `${v.name} ${v.auc.toFixed(2)}`)].join("; ");
+  out.push(...wrap(`  ${r.caution} How well it ranks: ${quality}.`, width, 2).map((l) => s.dim(l)));
+  const top = r.contributions.slice(0, 4);
   if (top.length) {
     out.push("  raised most by:");
-    for (const c of top) out.push(...wrap(`    ${featureText(c.feature, c.value)}`, width, 6));
+    for (const c of top) out.push(...wrap(`    ${contributionText(c, r.featureCategory)}`, width, 6));
   }
   const drops = r.whatIf.filter((w) => w.change < -0.0005).slice(0, 5);
   if (drops.length) {

@@ -3,7 +3,7 @@
  * model compares with the simple reference scores.
  */
 import type { BaselineFile } from "../baseline/baseline-file.js";
-import { FEATURE_DESCRIPTIONS, type FeatureName } from "../baseline/features.js";
+import { TERM_DESCRIPTIONS, TERM_NAMES } from "../baseline/features.js";
 import { PLAIN, fit, wrap, type Style } from "./style.js";
 
 const pct = (x: number) => `${(100 * x).toFixed(1)}%`;
@@ -34,17 +34,32 @@ export function baselineSummary(file: BaselineFile, outPath: string, s: Style = 
     out.push("", s.bold(`Risk model (labeled corpus: ${m.corpus})`));
     if (m.sample) out.push(`  trained on a seeded stratified sample of ${m.sample.taken} of ${m.sample.of} labeled rows (seed ${m.sample.seed})`);
     const crossFitted = file.provenance.inputs.some((i) => i.role === "frequencies+labels");
-    out.push(`  features ${m.featureBasis === "pooled" ? "against the pooled baseline (the labeled corpus has no categories)" : "against each app's category"}${crossFitted ? ", cross-fitted (each app left out of the counts behind its own features)" : ""}`);
-    m.features.forEach((f, j) => out.push(`  + ${m.coefficients[j].toFixed(4).padStart(8)} × ${FEATURE_DESCRIPTIONS[f as FeatureName] ?? f}`));
-    for (const d of m.dropped) out.push(s.dim(`    dropped ${d.feature} (coefficient ${d.coefficient.toFixed(4)} < 0 would break monotonicity)`));
-    out.push(`  fit ${m.training.converged ? "converged" : s.warn("did not converge")} (largest gradient ${m.training.gradientMax.toExponential(1)}, ${m.training.steps} steps)`);
+    out.push(...wrap(`  logistic regression with every weight ≥ 0 (removing a permission never raises the risk), L2 penalty ${m.lambda} chosen by ${m.lambdaChoice.length}-way inner cross-validation; one weight per permission of the labeled corpus (${m.vocabulary.length}), and three terms against the app's category in the baseline${m.featureBasis === "pooled" ? " (training rows have no category: pooled)" : ""}${crossFitted ? ", cross-fitted (each app left out of the counts behind its own terms)" : ""}`, 80, 4));
+    const top = m.vocabulary.map((p, j) => [p, m.permissionWeights[j]] as const).filter(([, w]) => w > 0).sort((x, y) => y[1] - x[1]);
+    out.push(`  ${top.length} of ${m.vocabulary.length} permission weights are above 0; the largest:`);
+    for (const [p, w] of top.slice(0, 8)) out.push(`    ${w.toFixed(3).padStart(7)}  ${p.replace(/^android\.permission\./, "")}`);
+    TERM_NAMES.forEach((t, k) => out.push(`    ${m.termWeights[k].toFixed(3).padStart(7)}  × ${TERM_DESCRIPTIONS[t]}`));
+    out.push(`  fit ${m.training.converged ? "converged" : s.warn("did not fully converge")} (KKT residual ${m.training.kktResidual.toExponential(1)}, ${m.training.iterations} iterations)`);
     const e = m.evaluation;
-    out.push("", `  ${e.folds}-fold cross-validation (seed ${e.seed}), ${m.training.rows} rows, ${pct(e.baseRate)} flagged:`);
+    const row = (name: string, r?: { auc: number; brier: number }) => (r ? `    ${fit(name, 38)} ${r.auc.toFixed(3).padStart(8)} ${Number.isFinite(r.brier) ? r.brier.toFixed(4).padStart(8) : "".padStart(8)}` : undefined);
+    out.push("", `  ${e.folds}-fold cross-validation (seed ${e.seed}, penalty chosen inside each fold), ${m.training.rows} rows, ${pct(e.baseRate)} flagged:`);
     out.push(s.dim(`    ${fit("score", 38)} ${"ROC AUC".padStart(8)} ${"Brier".padStart(8)}`));
-    out.push(`    ${fit("this model", 38)} ${e.auc.toFixed(3).padStart(8)} ${e.brier.toFixed(4).padStart(8)}`);
-    out.push(`    ${fit("number of dangerous permissions", 38)} ${e.references.dangerousCount.auc.toFixed(3).padStart(8)} ${e.references.dangerousCount.brier.toFixed(4).padStart(8)}`);
-    out.push(`    ${fit("summed surprisal", 38)} ${e.references.surprisal.auc.toFixed(3).padStart(8)} ${e.references.surprisal.brier.toFixed(4).padStart(8)}`);
-    out.push(`    ${fit("always the base rate", 38)} ${"0.500".padStart(8)} ${e.brierOfBaseRate.toFixed(4).padStart(8)}`);
+    for (const line of [
+      row("this model", e),
+      row("the same without the bound (reference)", e.references.unconstrained),
+      row("number of dangerous permissions", e.references.dangerousCount),
+      row("number of permissions", e.references.permissionCount),
+      row("summed surprisal", e.references.surprisal),
+      `    ${fit("always the base rate", 38)} ${"0.500".padStart(8)} ${e.brierOfBaseRate.toFixed(4).padStart(8)}`,
+    ]) if (line) out.push(line);
+    const bands = (b?: Record<string, number>) => (b ? `; bands: ${["low", "elevated", "high"].map((k) => `${pct(b[k] ?? 0)} ${k}`).join(", ")}` : "");
+  out.push(`  ${e.distinctValues} distinct risk values over ${e.rows} rows${bands(e.bands)}`);
+    for (const v of m.validation) {
+      out.push("", `  validation on ${v.name} (never seen in training): ${v.rows} rows, ${pct(v.baseRate)} flagged, ${pct(v.vocabularyOverlap)} of the vocabulary recorded`);
+      out.push(s.dim(`    ${fit("score", 38)} ${"ROC AUC".padStart(8)} ${"Brier".padStart(8)}`));
+      for (const line of [row("this model", v), row("number of dangerous permissions", v.references.dangerousCount), row("number of permissions", v.references.permissionCount), row("summed surprisal (pooled)", v.references.surprisal)]) if (line) out.push(line);
+      out.push(`    ${v.distinctValues} distinct risk values${bands(v.bands)}`);
+    }
     out.push("", "  calibration by decile of predicted risk, ties kept together (predicted → observed, n):");
     for (const b of e.calibration) out.push(`    ${pct(b.meanPredicted).padStart(6)} → ${pct(b.observed).padStart(6)}  (${b.n})`);
   }

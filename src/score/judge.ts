@@ -38,6 +38,8 @@ export interface JudgeOptions {
   categoryIndex?: Map<string, string>;
   /** Level overrides by check id (`off` silences a check). */
   levels?: Map<string, Level | "off">;
+  /** Shift the risk to a population with this share of flagged apps (`--prevalence`). */
+  prevalence?: number;
 }
 
 /** A baseline prepared for judging many apps: rates memoized per category and permission. */
@@ -48,7 +50,7 @@ export class Judge {
 
   constructor(readonly file: BaselineFile) {
     this.baseline = baselineOf(file);
-    if (file.model) this.scorer = new RiskScorer(this.baseline, file.model, file.caution);
+    if (file.model) this.scorer = new RiskScorer(this.baseline, file.model, file.caution, file.atypicality);
   }
 
   rate(category: string | undefined, permission: string): PermissionRate {
@@ -82,7 +84,7 @@ export class Judge {
     const result: CheckResult = { manifest, category, findings, notJudged };
     if (this.baseline.era !== undefined) result.era = { api: this.baseline.era, targetNewer: (manifest.targetSdk ?? 0) > this.baseline.era };
     // The app's own permissions say nothing about it against other apps: the risk leaves them out too.
-    if (this.scorer) result.risk = this.scorer.estimate(category.category, requested.filter((p) => !isOwnPermission(manifest, p)));
+    if (this.scorer) result.risk = this.scorer.estimate(category.category, requested.filter((p) => !isOwnPermission(manifest, p)), options.prevalence);
     return result;
   }
 }

@@ -1,15 +1,15 @@
 /**
- * The over-permissioning risk of one app from a baseline's model: the probability, a band whose cut
- * points come from the model's calibration, the features that move it most, and what removing each
- * requested permission would do to it. Always worded as an association with the flagged apps of the
- * named corpus — never as a cause.
+ * The over-permissioning risk of one app from a baseline's model: the probability, a band whose cut points
+ * come from the model's calibration, the likelihood ratio against the training base rate, optionally the
+ * figure shifted to the user's own prevalence, the permissions and category terms that raise it most, what
+ * removing each requested permission would do to it, and the label-free atypicality beside it. Always
+ * worded as an association with the flagged apps of the named corpus — never as a cause.
  */
-import type { StoredModel } from "../baseline/baseline-file.js";
-import { appFeatures, FEATURE_DESCRIPTIONS, FEATURE_NAMES, type FeatureName } from "../baseline/features.js";
-import { modelRisk } from "../baseline/model-risk.js";
+import { percentileOf } from "../baseline/atypicality.js";
+import type { BaselineFile, StoredModel } from "../baseline/baseline-file.js";
+import { appTerms, TERM_DESCRIPTIONS, TERM_NAMES, type TermName } from "../baseline/features.js";
 import type { Baseline } from "../baseline/rates.js";
 
-export type Band = "low" | "elevated" | "high";
 
 export interface RiskEstimate {
   probability: number;
@@ -18,98 +18,117 @@ export interface RiskEstimate {
   cutPoints: { elevated?: number; high?: number };
   /** Share of flagged apps in the model's training rows. */
   baseRate: number;
-  /** The category the features were computed against; absent for the pooled baseline. */
+  /** odds(probability) / odds(base rate): how much the profile moves the odds, whatever the prevalence. */
+  likelihoodRatio: number;
+  /** The figure for a population with another share of flagged apps (`--prevalence`). */
+  prevalence?: { share: number; probability: number; band: Band; cutPoints: { elevated?: number; high?: number } };
+  /** The category the terms were computed against; absent for the pooled baseline. */
   featureCategory?: string;
-  /** Features by how much they raise this app's risk above the training average (log-odds), largest first. */
-  contributions: { feature: string; description: string; value: number; logOdds: number }[];
-  /** For each requested permission the model counts: the risk without it. Largest drop first. */
+  /** What raises the log-odds most: permissions (their whole effect, indicator and terms) and the terms. */
+  contributions: { kind: "permission" | "term"; name: string; description: string; logOdds: number }[];
+  /** For each requested permission: the risk without it. Largest drop first. */
   whatIf: { permission: string; without: number; change: number }[];
-  /** The risk without every requested permission that is uncommon for the category, when there are any. */
+  /** The risk without every requested permission that is uncommon for the category, when there are several. */
   withoutUncommon?: { permissions: string[]; without: number };
+  /** The label-free figure: where the app's summed surprisal falls among the baseline's apps of its category. */
+  atypicality?: { percentile: number; category?: string; apps: number };
+  /** In-corpus and later-corpus ROC AUC, for the caution. */
+  quality: { inCorpus: number; validation: { name: string; auc: number }[] };
   corpus: string;
   caution: string;
 }
 
-/**
- * Band cut points from the model's out-of-fold calibration: `high` starts at the first calibration bin
- * (by predicted risk) whose flagged share reaches halfway from the base rate to 1; `elevated` at the
- * first whose flagged share reaches 1.5 times the base rate (or the high mark, if that is lower).
- */
-export function bandCutPoints(model: StoredModel): { elevated?: number; high?: number } {
-  const base = model.evaluation.baseRate;
-  const bins = [...model.evaluation.calibration].sort((a, b) => a.meanPredicted - b.meanPredicted);
-  const highMark = (1 + base) / 2;
-  const elevated = bins.find((b) => b.observed >= Math.min(1.5 * base, highMark))?.from;
-  const high = bins.find((b) => b.observed >= highMark)?.from;
-  return { ...(elevated !== undefined ? { elevated } : {}), ...(high !== undefined ? { high } : {}) };
-}
+export { bandCutPoints, bandOf, type Band } from "../baseline/model.js";
+import { bandCutPoints, bandOf, type Band } from "../baseline/model.js";
 
-export function bandOf(p: number, cuts: { elevated?: number; high?: number }): Band {
-  if (cuts.high !== undefined && p >= cuts.high) return "high";
-  if (cuts.elevated !== undefined && p >= cuts.elevated) return "elevated";
-  return "low";
+const logit = (p: number) => Math.log(p / (1 - p));
+const sigmoid = (z: number) => 1 / (1 + Math.exp(-z));
+
+/**
+ * Prior shift (Saerens, Latinne & Decaestecker, "Adjusting the outputs of a classifier to new a priori
+ * probabilities", Neural Computation 14, 2002): logit p′ = logit p + logit π′ − logit π.
+ * @example shiftPrevalence(0.5, 0.37, 0.05) // → about 0.082
+ */
+export function shiftPrevalence(p: number, from: number, to: number): number {
+  if (!(to > 0 && to < 1)) throw new RangeError(`a prevalence must lie strictly between 0 and 1 (got ${to})`);
+  return sigmoid(logit(Math.min(1 - 1e-12, Math.max(1e-12, p))) + logit(to) - logit(from));
 }
 
 export class RiskScorer {
-  private readonly vocabulary?: ReadonlySet<string>;
+  private readonly index: ReadonlyMap<string, number>;
   readonly cuts: { elevated?: number; high?: number };
 
   constructor(
     readonly baseline: Baseline,
     readonly model: StoredModel,
     readonly caution: string,
+    private readonly atypicality?: BaselineFile["atypicality"],
   ) {
-    if (model.vocabulary) this.vocabulary = new Set(model.vocabulary);
+    this.index = new Map(model.vocabulary.map((p, j) => [p, j]));
     this.cuts = bandCutPoints(model);
   }
 
-  /** The category features are computed against: the app's, unless the model learned on pooled features. */
-  featureCategory(category: string | undefined): string | undefined {
-    return this.model.featureBasis === "pooled" ? undefined : category;
-  }
-
-  private counted(permissions: Iterable<string>): string[] {
-    const v = this.vocabulary;
-    return v ? [...permissions].filter((p) => v.has(p)) : [...permissions];
-  }
-
-  probability(category: string | undefined, permissions: Iterable<string>): number {
-    return modelRisk(this.model, FEATURE_NAMES, appFeatures(this.baseline, this.featureCategory(category), this.counted(permissions)));
-  }
-
-  estimate(category: string | undefined, permissions: readonly string[]): RiskEstimate {
-    const fc = this.featureCategory(category);
-    const counted = this.counted(permissions);
-    const x = appFeatures(this.baseline, fc, counted);
-    const probability = modelRisk(this.model, FEATURE_NAMES, x);
+  /** Log-odds of an app in `category` requesting `permissions`. */
+  logOdds(category: string | undefined, permissions: readonly string[]): number {
     const m = this.model;
-    const contributions = m.features
-      .map((f, j) => {
-        const value = x[FEATURE_NAMES.indexOf(f as FeatureName)];
-        return { feature: f, description: FEATURE_DESCRIPTIONS[f as FeatureName] ?? f, value, logOdds: m.coefficients[j] * (value - m.standardized.means[j]) };
-      })
-      .sort((a, b) => b.logOdds - a.logOdds);
-    const whatIf = [...new Set(counted)]
+    let z = m.intercept;
+    for (const p of new Set(permissions)) {
+      const j = this.index.get(p);
+      if (j !== undefined) z += m.permissionWeights[j];
+    }
+    appTerms(this.baseline, category, new Set(permissions)).forEach((t, k) => (z += m.termWeights[k] * t));
+    return z;
+  }
+
+  probability(category: string | undefined, permissions: readonly string[]): number {
+    return sigmoid(this.logOdds(category, permissions));
+  }
+
+  estimate(category: string | undefined, permissions: readonly string[], prevalence?: number): RiskEstimate {
+    const m = this.model;
+    const perms = [...new Set(permissions)];
+    const z = this.logOdds(category, perms);
+    const probability = sigmoid(z);
+    const base = m.evaluation.baseRate;
+    const whatIf = perms
       .map((p) => {
-        const without = modelRisk(m, FEATURE_NAMES, appFeatures(this.baseline, fc, counted.filter((q) => q !== p)));
+        const without = this.probability(category, perms.filter((q) => q !== p));
         return { permission: p, without, change: without - probability };
       })
       .sort((a, b) => a.change - b.change || a.permission.localeCompare(b.permission));
-    const uncommon = [...new Set(counted)].filter((p) => this.baseline.rate(fc, p).uncommon);
-    const withoutUncommon = uncommon.length > 1
-      ? { permissions: uncommon, without: modelRisk(m, FEATURE_NAMES, appFeatures(this.baseline, fc, counted.filter((q) => !uncommon.includes(q)))) }
-      : undefined;
-    return {
+    const terms = appTerms(this.baseline, category, perms);
+    const contributions: RiskEstimate["contributions"] = [
+      ...perms.map((p) => ({ kind: "permission" as const, name: p, description: p, logOdds: z - this.logOdds(category, perms.filter((q) => q !== p)) })),
+      ...TERM_NAMES.map((t, k) => ({ kind: "term" as const, name: t, description: TERM_DESCRIPTIONS[t as TermName], logOdds: m.termWeights[k] * terms[k] })),
+    ]
+      .filter((c) => c.logOdds > 1e-9)
+      .sort((a, b) => b.logOdds - a.logOdds);
+    const uncommon = perms.filter((p) => this.baseline.rate(category, p).uncommon);
+    const out: RiskEstimate = {
       probability,
       band: bandOf(probability, this.cuts),
       cutPoints: this.cuts,
-      baseRate: m.evaluation.baseRate,
-      ...(fc !== undefined ? { featureCategory: fc } : {}),
+      baseRate: base,
+      likelihoodRatio: Math.exp(z - logit(base)),
+      ...(category !== undefined ? { featureCategory: category } : {}),
       contributions,
       whatIf,
-      ...(withoutUncommon ? { withoutUncommon } : {}),
+      ...(uncommon.length > 1 ? { withoutUncommon: { permissions: uncommon, without: this.probability(category, perms.filter((q) => !uncommon.includes(q))) } } : {}),
+      quality: { inCorpus: m.evaluation.auc, validation: m.validation.map((v) => ({ name: v.name, auc: v.auc })) },
       corpus: m.corpus,
       caution: this.caution,
     };
+    const a = this.atypicality;
+    if (a) {
+      const points = category !== undefined ? a.categories[category] : a.pooled;
+      if (points?.length) out.atypicality = { percentile: percentileOf(points, terms[2]), ...(category !== undefined ? { category } : {}), apps: a.apps[category ?? ""] ?? 0 };
+    }
+    if (prevalence !== undefined) {
+      const shift = (p: number) => shiftPrevalence(p, base, prevalence);
+      const cuts = { ...(this.cuts.elevated !== undefined ? { elevated: shift(this.cuts.elevated) } : {}), ...(this.cuts.high !== undefined ? { high: shift(this.cuts.high) } : {}) };
+      const shifted = shift(probability);
+      out.prevalence = { share: prevalence, probability: shifted, band: bandOf(shifted, cuts), cutPoints: cuts };
+    }
+    return out;
   }
 }

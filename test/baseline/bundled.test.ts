@@ -63,7 +63,7 @@ describe("baselines/default.json", () => {
   });
 
   it("records both inputs' licences and the caution", () => {
-    expect(file.provenance.inputs.map((i) => i.licence)).toEqual(["GPL-3.0", "CC-BY-4.0"]);
+    expect(file.provenance.inputs.map((i) => [i.role, i.licence])).toEqual([["frequencies", "GPL-3.0"], ["labels", "CC-BY-4.0"], ["validation", "GPL-3.0"], ["validation", "GPL-3.0"]]);
     expect(file.caution).toMatch(/not evidence of intent or harm/);
     expect(file.model?.vocabulary).toHaveLength(113);
   });

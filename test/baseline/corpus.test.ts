@@ -93,8 +93,22 @@ describe("wide CSV corpora", () => {
     expect(report.rejects).toEqual([
       { line: 3, reason: 'column CAMERA holds "?", not 0 or 1' },
       { line: 4, reason: "2 columns, the header has 3" },
-      { line: 5, reason: "unterminated quote" },
+      { line: 5, reason: "unterminated quote at the end of the file" },
     ]);
+  });
+
+  it("reads a quoted field that holds line breaks as one record (RFC 4180 §2.6)", async () => {
+    // As in the KronoDroid files (SOURCES.md: package names with stray line breaks, quoted).
+    const p = file('Package,SEND_SMS,CAMERA,Malware\n"org.example\n.odd",1,0,1\norg.example.plain,0,1,0\n');
+    const { records, report } = await readAll(p, { labelField: "Malware", idField: "Package" });
+    expect(report.rejected).toBe(0);
+    expect(records.map((r) => [r.id, r.label, r.line])).toEqual([["org.example\n.odd", 1, 2], ["org.example.plain", 0, 4]]);
+  });
+
+  it("keeps only platform permission columns when asked (validation corpora)", async () => {
+    const p = file("Package,SEND_SMS,read,Detection_Ratio,Malware\na,1,5,0,1\nb,0,3,0,0\n");
+    const { report } = await readAll(p, { labelField: "Malware", idField: "Package", platformColumnsOnly: true } as never);
+    expect(report.vocabulary).toEqual(["android.permission.SEND_SMS"]);
   });
 });
 

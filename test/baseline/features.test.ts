@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { appFeatures, FEATURE_NAMES, permissionTerms } from "../../src/baseline/features.js";
+import { appTerms, permissionTerms, TERM_NAMES } from "../../src/baseline/features.js";
 import { defaultJudge } from "../helpers/judge.js";
 import { seededRandom } from "../../src/util/random.js";
 
@@ -7,29 +7,33 @@ const baseline = defaultJudge.baseline;
 const vocabulary = [...baseline.counts.pooled.permissions.keys()].sort();
 
 describe("permissionTerms", () => {
-  it("puts every permission in exactly one of the four disjoint groups", () => {
+  it("counts a permission as uncommon-sensitive or uncommon-other at most once, with a non-negative surprisal", () => {
     for (const p of vocabulary.slice(0, 200)) {
-      const t = permissionTerms(baseline, "TOOLS", p).terms;
-      expect(t.commonOther + t.commonSensitive + t.uncommonOther + t.uncommonSensitive).toBe(1);
+      const t = permissionTerms(baseline, "TOOLS", p);
+      expect(t.uncommonSensitive + t.uncommonOther).toBeLessThanOrEqual(1);
       expect(t.surprisal).toBeGreaterThanOrEqual(0);
     }
   });
+
+  it("adds nothing for a permission newer than the baseline with nothing before it (era rule)", () => {
+    expect(permissionTerms(baseline, "TOOLS", "android.permission.UWB_RANGING")).toEqual({ permission: "android.permission.UWB_RANGING", uncommonSensitive: 0, uncommonOther: 0, surprisal: 0 });
+  });
 });
 
-describe("appFeatures", () => {
-  it("never lowers a feature when a permission is added (the monotonicity the model relies on)", () => {
+describe("appTerms", () => {
+  it("never lowers a term when a permission is added (the monotonicity the model relies on)", () => {
     const rand = seededRandom(7);
     for (let trial = 0; trial < 300; trial++) {
       const perms = vocabulary.filter(() => rand() < 0.05);
       const extra = vocabulary[Math.floor(rand() * vocabulary.length)];
-      const before = appFeatures(baseline, "TOOLS", perms);
-      const after = appFeatures(baseline, "TOOLS", [...perms, extra]);
-      FEATURE_NAMES.forEach((_, i) => expect(after[i]).toBeGreaterThanOrEqual(before[i] - 1e-12));
+      const before = appTerms(baseline, "TOOLS", perms);
+      const after = appTerms(baseline, "TOOLS", [...perms, extra]);
+      TERM_NAMES.forEach((_, i) => expect(after[i]).toBeGreaterThanOrEqual(before[i] - 1e-12));
     }
   });
 
-  it("counts only the permissions of the given vocabulary", () => {
-    const perms = ["android.permission.INTERNET", "org.example.NOT_RECORDED"];
-    expect(appFeatures(baseline, "TOOLS", perms, { vocabulary: new Set(["android.permission.INTERNET"]) })).toEqual(appFeatures(baseline, "TOOLS", ["android.permission.INTERNET"]));
+  it("depends on the category", () => {
+    const perms = ["android.permission.READ_CONTACTS", "android.permission.READ_SMS"];
+    expect(appTerms(baseline, "EDUCATION", perms)).not.toEqual(appTerms(baseline, "COMMUNICATION", perms));
   });
 });

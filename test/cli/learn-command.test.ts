@@ -96,3 +96,35 @@ describe("overask fold", () => {
     expect(stderr).toMatch(/is not JSON|is not an overask baseline/);
   });
 });
+
+describe("learn: the model's bad inputs", () => {
+  it("refuses labels that are all of one class, naming the corpus (exit 3)", async () => {
+    const { mkdtempSync, writeFileSync } = await import("node:fs");
+    const { tmpdir } = await import("node:os");
+    const { join } = await import("node:path");
+    const dir = mkdtempSync(join(tmpdir(), "overask-oneclass-"));
+    const p = join(dir, "c.jsonl");
+    writeFileSync(p, Array.from({ length: 40 }, (_, i) => JSON.stringify({ id: `a${i}`, category: "Tools", permissions: ["android.permission.CAMERA"], label: 1 })).join("\n") + "\n");
+    const r = await cli(["learn", p, "-o", join(dir, "b.json")]);
+    expect(r.code).toBe(3);
+    expect(r.stderr).toMatch(/c\.jsonl: the labeled rows are all flagged/);
+  });
+
+  it("refuses a validation corpus that records none of the model's permissions", async () => {
+    const { mkdtempSync, writeFileSync } = await import("node:fs");
+    const { tmpdir } = await import("node:os");
+    const { join } = await import("node:path");
+    const dir = mkdtempSync(join(tmpdir(), "overask-noverlap-"));
+    const v = join(dir, "v.csv");
+    writeFileSync(v, "BODY_SENSORS,label\n1,1\n0,0\n");
+    const r = await cli(["learn", `${ROOT}fixtures/corpus/harbourview.jsonl`, "--label-field", "flagged", "--positive", "yes", "--validate", v, "--validate-label-field", "label", "--validate-positive", "1", "-o", join(dir, "b.json")]);
+    expect(r.code).toBe(3);
+    expect(r.stderr).toMatch(/v\.csv: records none of the labeled corpus's permissions/);
+  });
+
+  it("refuses a prevalence outside (0, 1) (exit 2)", async () => {
+    const r = await cli(["check", "--prevalence", "1", `${ROOT}fixtures/apk/pocketlamp.apk`]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/--prevalence <share>.*It must be between 0 and 1/);
+  });
+});

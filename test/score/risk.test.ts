@@ -34,3 +34,43 @@ describe("RiskScorer", () => {
     expect(scorer.estimate(undefined, perms).caution).toMatch(/not evidence of intent or harm/);
   });
 });
+
+describe("prevalence and the likelihood ratio", async () => {
+  const { shiftPrevalence } = await import("../../src/score/risk.js");
+  it("shifts a figure to another population by the prior-shift formula", () => {
+    // Saerens, Latinne & Decaestecker (Neural Computation 2002): logit p′ = logit p + logit π′ − logit π. Worked by hand:
+    // logit 0.5 = 0, logit 0.05 = −2.9444, logit 0.37 = −0.5322 → p′ = σ(−2.4122) = 0.08225.
+    expect(shiftPrevalence(0.5, 0.37, 0.05)).toBeCloseTo(0.08225, 4);
+    expect(shiftPrevalence(0.3, 0.3, 0.3)).toBeCloseTo(0.3, 12);
+    expect(() => shiftPrevalence(0.5, 0.37, 1)).toThrow(RangeError);
+  });
+
+  it("gives the likelihood ratio, which needs no prevalence, and shifts the bands alike", () => {
+    const perms = ["android.permission.SEND_SMS", "android.permission.READ_PHONE_STATE"];
+    const e = scorer.estimate("TOOLS", perms, 0.02);
+    const odds = (p: number) => p / (1 - p);
+    expect(e.likelihoodRatio).toBeCloseTo(odds(e.probability) / odds(e.baseRate), 9);
+    expect(e.prevalence!.probability).toBeCloseTo(shiftPrevalence(e.probability, e.baseRate, 0.02), 12);
+    if (scorer.cuts.high !== undefined) expect(e.prevalence!.cutPoints.high).toBeCloseTo(shiftPrevalence(scorer.cuts.high, e.baseRate, 0.02), 12);
+  });
+});
+
+describe("atypicality", async () => {
+  const { percentileOf } = await import("../../src/baseline/atypicality.js");
+  it("reads a percentile off the stored points by linear interpolation", () => {
+    const points = Array.from({ length: 101 }, (_, i) => i / 10); // 0, 0.1, … 10
+    expect(percentileOf(points, 5)).toBeCloseTo(50, 9);
+    expect(percentileOf(points, 5.05)).toBeCloseTo(50.5, 9);
+    expect(percentileOf(points, -1)).toBe(0);
+    expect(percentileOf(points, 11)).toBe(100);
+  });
+
+  it("places an app among the baseline's apps of its category, and depends on the category", () => {
+    const perms = ["android.permission.READ_CONTACTS", "android.permission.READ_SMS", "android.permission.INTERNET"];
+    const tools = scorer.estimate("TOOLS", perms).atypicality!;
+    const comm = scorer.estimate("COMMUNICATION", perms).atypicality!;
+    expect(tools.category).toBe("TOOLS");
+    expect(tools.apps).toBe(2318);
+    expect(tools.percentile).toBeGreaterThan(comm.percentile); // SMS and contacts are ordinary for messengers
+  });
+});

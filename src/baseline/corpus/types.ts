@@ -68,6 +68,8 @@ export interface CorpusOptions {
   positive?: string[];
   /** Wide CSV: the permission columns to keep (the rest are ignored); every one must be in the header. */
   columns?: ReadonlySet<string>;
+  /** Wide CSV without a column list: keep only the columns that name a platform permission (bare names allowed). */
+  platformColumnsOnly?: boolean;
   /** Category aliases: source name → baseline name. */
   aliases?: Map<string, string>;
   /** Reject rows without a category (true when the corpus feeds category baselines). */

@@ -3,7 +3,10 @@
  * and optional label, id and category columns.
  */
 import { CorpusError } from "../../errors.js";
-import { normalizePermissionName } from "../../platform/permissions.js";
+import { normalizePermissionName, platformPermission } from "../../platform/permissions.js";
+
+/** Most physical lines one CSV record may span (a quoted field with line breaks). */
+const MAX_RECORD_LINES = 50;
 import type { Ledger } from "./common.js";
 import { splitCsvLine } from "../../util/csv.js";
 import type { CorpusOptions, CorpusRecord, CorpusSource } from "./types.js";
@@ -34,7 +37,24 @@ export async function* readWideCsv(source: CorpusSource, options: CorpusOptions,
   let labelIdx = -1;
   let idIdx = -1;
   let categoryIdx = -1;
-  for await (const { text, line } of source.lines(options.onProgress)) {
+  let pending: { text: string; line: number; parts: number } | undefined;
+  for await (const physical of source.lines(options.onProgress)) {
+    // A quoted field may hold a line break (RFC 4180 §2.6): join physical lines until the quotes close.
+    let text = physical.text;
+    let line = physical.line;
+    let parts = 0;
+    if (pending) {
+      text = `${pending.text}\n${text}`;
+      line = pending.line;
+      parts = pending.parts;
+      pending = undefined;
+    }
+    if (header && text.includes('"') && splitCsvLine(text) === undefined) {
+      if (parts < MAX_RECORD_LINES) {
+        pending = { text, line, parts: parts + 1 };
+        continue;
+      }
+    }
     if (!header) {
       header = splitCsvLine(text.replace(/^\uFEFF/, ""))?.map((h) => h.trim());
       if (!header) throw new CorpusError("header row has an unterminated quote", { file: path });
@@ -46,7 +66,7 @@ export async function* readWideCsv(source: CorpusSource, options: CorpusOptions,
       if (categoryColumn && categoryIdx < 0) ledger.report.notes.push(`no category column "${categoryColumn}"`);
       if (labelIdx < 0) ledger.report.notes.push(`no label column "${labelColumn}"`);
       const special = new Set([labelIdx, idIdx, categoryIdx]);
-      permissionIdx = header.map((_, i) => i).filter((i) => !special.has(i) && (!wanted || wanted.has(header![i])));
+      permissionIdx = header.map((_, i) => i).filter((i) => !special.has(i) && (!wanted || wanted.has(header![i])) && (!options.platformColumnsOnly || platformPermission(normalizePermissionName(header![i])) !== undefined));
       if (wanted) {
         const missing = [...wanted].filter((w) => !header!.includes(w));
         if (missing.length) throw new CorpusError(`${missing.length} listed permission columns are not in the header (first: ${missing[0]})`, { file: path });
@@ -76,6 +96,10 @@ export async function* readWideCsv(source: CorpusSource, options: CorpusOptions,
     const id = idIdx >= 0 ? f[idIdx] : `line ${line}`;
     const record = ledger.accept(line, id, categoryIdx >= 0 ? f[categoryIdx].trim() : undefined, labelIdx >= 0 ? f[labelIdx] : undefined, perms);
     if (record) yield record;
+  }
+  if (pending) {
+    ledger.report.rows++;
+    ledger.reject(pending.line, "unterminated quote at the end of the file");
   }
   if (!header) throw new CorpusError("is empty", { file: path });
 }
