@@ -45,6 +45,12 @@ for (const [file, name] of [["permission-added-in", "ADDED_IN"], ["permission-li
   );
 }
 
+// The policy file's JSON Schema (docs/policy.schema.json), for validating policies at run time.
+writeIfChanged(
+  "src/score/policy/generated/schema.ts",
+  `${banner("docs/policy.schema.json")}export const POLICY_SCHEMA = ${readFileSync(root + "docs/policy.schema.json", "utf8").trim()} as const;\n`,
+);
+
 const proto = protobuf.parse(readFileSync(root + "src/extract/proto/resources.proto", "utf8"), { keepCase: true }).root;
 writeIfChanged(
   "src/extract/proto/generated/descriptor.ts",

@@ -55,7 +55,7 @@ export async function checkCommand(files: string[], o: CheckCliOptions, io: Io):
   if (files.length === 0) throw new UsageError("give files to check, or --records CORPUS");
 
   const outcome = checkFiles(judge, files, options, gates, (_file, e) => io.stderr.write(`overask: ${e.describe()}\n`));
-  const info = { baseline: baselineName, caution: judge.file.caution };
+  const info = { baseline: baselineName, caution: judge.file.caution, ...(options.policies ? { policies: options.policies } : {}) };
   if (o.format === "html") {
     const { checkToHtml } = await import("../report/html/check-report.js");
     const { requestedRates } = await import("../score/requested.js");

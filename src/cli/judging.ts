@@ -2,6 +2,7 @@
 import type { Baseline } from "../baseline/rates.js";
 import { UsageError } from "../errors.js";
 import { readCategoryIndex } from "../ops/check.js";
+import { readPolicyFile } from "../ops/policy.js";
 import { categoryList, nearestCategory, resolveCategory } from "../score/category.js";
 import type { JudgeOptions } from "../score/judge.js";
 import { checkById, CHECKS } from "../score/registry.js";
@@ -13,6 +14,7 @@ export interface JudgingCliOptions {
   baseline?: string;
   level?: Map<string, Level | "off">;
   prevalence?: number;
+  policy?: string[];
 }
 
 /**
@@ -35,5 +37,6 @@ export function judgeOptions(o: JudgingCliOptions, baseline?: Baseline): JudgeOp
   }
   options.levels = o.level ?? new Map();
   if (o.prevalence !== undefined) options.prevalence = o.prevalence;
+  if (o.policy?.length) options.policies = o.policy.map(readPolicyFile);
   return options;
 }

@@ -4,7 +4,7 @@
  * load when their command runs, so that `--help` and `--version` start fast.
  */
 import { Command, CommanderError, Option } from "commander";
-import { InputError } from "../errors.js";
+import { InputError, UsageError } from "../errors.js";
 import { TOOL_VERSION } from "../version.js";
 import { EXIT, exitCodesHelp } from "./exit-codes.js";
 import { processIo, type Io } from "./io.js";
@@ -85,6 +85,7 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
       .option("--categories <file>", "CSV mapping package names to categories (package,category)")
       .option("-b, --baseline <file>", "baseline file (default: the bundled baselines/default.json)")
       .option("--prevalence <share>", "share of flagged apps in your population: shift the risk to it from the training base rate", openUnit)
+      .option("--policy <file>", "evaluate this policy's rules too (repeatable; see overask rules)", collect)
       .addOption(new Option("-f, --format <format>", "output format").choices(formats).default("text"));
 
   judging(program.command("check"), ["text", "json", "sarif", "html"])
@@ -119,6 +120,7 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
     .option("-b, --baseline <file>", "baseline file (default: the bundled baselines/default.json)")
     .option("--level <check=level>", "override a check's level (repeatable)", collectLevels)
     .option("--prevalence <share>", "share of flagged apps in your population: shift the risk to it from the training base rate", openUnit)
+    .option("--policy <file>", "evaluate this policy's rules too (repeatable; see overask rules)", collect)
     .addOption(new Option("--fail-on <level>", "exit 1 when an app has a finding at or above this level").choices(["error", "warning", "note"]))
     .option("--max-risk <p>", "exit 1 when an app's risk is above this probability", closedUnit)
     .action(async (source: string, o: import("./sweep-command.js").SweepCliOptions) => {
@@ -162,6 +164,16 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
     });
 
   program
+    .command("rules")
+    .description("list the policy rules in force (the given policy files), or the bundled policies, with their sources")
+    .option("--policy <file>", "a policy file (repeatable)", collect)
+    .addOption(new Option("-f, --format <format>", "output format").choices(["text", "json"]).default("text"))
+    .action(async (o: { policy?: string[]; format: "text" | "json" }) => {
+      const { rulesCommand } = await import("./rules-command.js");
+      exitCode = rulesCommand(o, io);
+    });
+
+  program
     .command("fold")
     .description("add up baselines learned on separate corpora (counts merge exactly; risk models do not)")
     .argument("<baseline...>", "baseline files")
@@ -174,7 +186,7 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
   try {
     await program.parseAsync(argv, { from: "user" });
   } catch (e) {
-    if (e instanceof Error && e.name === "UsageError") {
+    if (e instanceof UsageError) {
       io.stderr.write(`overask: ${e.message}\n`);
       return EXIT.USAGE;
     }

@@ -3,8 +3,9 @@
  * Pure functions from results to strings.
  */
 import type { CheckResult, NotJudged } from "../score/judge.js";
+import type { Policy } from "../score/policy/policy.js";
 import type { CategoryChoice } from "../score/category.js";
-import { checkById } from "../score/registry.js";
+import { wordFinding } from "../score/registry.js";
 import type { RiskEstimate } from "../score/risk.js";
 import type { Finding } from "../score/types.js";
 import { TOOL_VERSION } from "../version.js";
@@ -22,13 +23,15 @@ export interface CheckRun {
 export interface CheckRunInfo {
   baseline: string;
   caution: string;
+  /** Policies in force, for SARIF's rule descriptors. */
+  policies?: readonly Policy[];
 }
 
 const pct = (x: number) => `${(100 * x).toFixed(x < 0.1 ? 1 : 0)}%`;
 const short = (name: string) => name.replace(/^android\.permission\./, "");
 
 export function messageOf(f: Pick<Finding, "checkId" | "subject" | "data">): string {
-  return checkById(f.checkId)?.message(f) ?? f.checkId;
+  return wordFinding(f);
 }
 
 /** The other reasons folded into a finding on the same permission, worded by their own checks. */

@@ -4,6 +4,7 @@
  * (the element path). `results` is always present, even when empty.
  */
 import type { Log, Result, ReportingDescriptor } from "sarif";
+import { policyCheckId } from "../score/policy/policy.js";
 import { CHECKS } from "../score/registry.js";
 import { TOOL_VERSION } from "../version.js";
 import { alsoMessages, messageOf, type CheckRun, type CheckRunInfo } from "./check.js";
@@ -19,6 +20,20 @@ export function checkToSarif(runs: CheckRun[], info: CheckRunInfo): string {
     help: { text: `${c.meta.description} Documentation: ${c.meta.docs} in the overask package.` },
     defaultConfiguration: { level: c.meta.defaultLevel },
   }));
+  // Policy rules in force are rules of the run too, described from the policy file.
+  for (const p of info.policies ?? []) {
+    for (const r of p.rules) {
+      rules.push({
+        id: policyCheckId(r),
+        name: r.id,
+        shortDescription: { text: r.message },
+        fullDescription: { text: `${r.message} (policy ${p.name}; source: ${r.source})` },
+        help: { text: `Rule ${r.id} of ${p.file}, line ${r.line}. Source: ${r.source}` },
+        defaultConfiguration: { level: r.level },
+        properties: { policy: p.name, file: p.file, line: r.line },
+      });
+    }
+  }
   const results: Result[] = [];
   for (const run of runs) {
     const m = run.result?.manifest;
@@ -29,7 +44,7 @@ export function checkToSarif(runs: CheckRun[], info: CheckRunInfo): string {
         : { artifactLocation: { uri: toUri(run.file) } };
       results.push({
         ruleId: f.checkId,
-        ruleIndex: CHECKS.findIndex((c) => c.meta.id === f.checkId),
+        ruleIndex: rules.findIndex((r) => r.id === f.checkId),
         level: f.level,
         message: { text: [`${f.subject}: ${messageOf(f)}`, ...alsoMessages(f).map((a) => `Also: ${a.message}`)].join(" ") },
         locations: [{ physicalLocation: physical, logicalLocations: [{ fullyQualifiedName: f.location.path, kind: "element" }] }],

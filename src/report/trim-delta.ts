@@ -69,6 +69,10 @@ export function deltaToText(d: Delta, files: [string, string], caution: string |
   for (const r of d.removed) out.push(`  - ${short(r.permission)}${describe(r) ? s.dim(`  ${describe(r)}`) : ""}`);
   out.push("", s.bold(`Newly uncommon for the category (${d.newlyUncommon.length})`));
   for (const f of d.newlyUncommon) out.push(...findingLines(f, messageOf(f), [], s));
+  if (d.newlyBroken.length) {
+    out.push("", s.bold(`Policy rules newly broken (${d.newlyBroken.length})`));
+    for (const f of d.newlyBroken) out.push(...findingLines(f, messageOf(f), [], s));
+  }
   out.push("", s.bold(`Special access (${d.specialAccess.added.length} new, ${d.specialAccess.removed.length} gone)`));
   for (const f of d.specialAccess.added) out.push(...findingLines({ ...f, subject: `+ ${f.subject}` }, messageOf(f), [], s));
   for (const f of d.specialAccess.removed) out.push(...wrap(`  - ${f.subject}`, 80, 6));
@@ -78,5 +82,5 @@ export function deltaToText(d: Delta, files: [string, string], caution: string |
 }
 
 export function deltaToJson(d: Delta, files: [string, string], caution: string | undefined): string {
-  return `${JSON.stringify({ tool: "overask", version: TOOL_VERSION, schemaVersion: 1, files, caution, ...d, newlyUncommon: d.newlyUncommon.map((f) => ({ ...f, message: messageOf(f) })) }, null, 2)}\n`;
+  return `${JSON.stringify({ tool: "overask", version: TOOL_VERSION, schemaVersion: 1, files, caution, ...d, newlyUncommon: d.newlyUncommon.map((f) => ({ ...f, message: messageOf(f) })), newlyBroken: d.newlyBroken.map((f) => ({ ...f, message: messageOf(f) })) }, null, 2)}\n`;
 }

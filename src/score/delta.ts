@@ -43,6 +43,8 @@ export interface Delta {
   newlyUncommon: Finding[];
   /** Special-access components that appeared or disappeared. */
   specialAccess: { added: Finding[]; removed: Finding[] };
+  /** Policy rules the new version breaks and the old one did not. */
+  newlyBroken: Finding[];
   /** Components other apps can reach now that they could not before. */
   newlyExported: { kind: string; name: string }[];
 }
@@ -81,6 +83,7 @@ export function compareVersions(before: CheckResult, after: CheckResult): Delta 
       added: special(after).filter((f) => !oldSpecial.has(key(f))),
       removed: special(before).filter((f) => !newSpecial.has(key(f))),
     },
+    newlyBroken: after.findings.filter((f) => f.checkId.startsWith("policy:") && !before.findings.some((o) => o.checkId === f.checkId && o.subject === f.subject)),
     newlyExported: after.manifest.components.filter((c) => c.effectiveExported && !wasExported.has(`${c.kind} ${c.name}`)).map((c) => ({ kind: c.kind, name: c.name })),
   };
 }

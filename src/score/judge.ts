@@ -8,6 +8,7 @@ import type { Baseline, PermissionRate } from "../baseline/rates.js";
 import { requestedPermissionNames, type Manifest } from "../extract/manifest/model.js";
 import { chooseCategory, type CategoryChoice } from "./category.js";
 import { isOwnPermission, judgeFrequency } from "./frequency.js";
+import { evaluatePolicy, type Policy } from "./policy/policy.js";
 import { CHECKS, checkIdsTagged } from "./registry.js";
 import { RiskScorer, type RiskEstimate } from "./risk.js";
 import { levelRank, type Finding, type Level } from "./types.js";
@@ -40,6 +41,8 @@ export interface JudgeOptions {
   levels?: Map<string, Level | "off">;
   /** Shift the risk to a population with this share of flagged apps (`--prevalence`). */
   prevalence?: number;
+  /** Policies whose rules are evaluated beside the checks (`--policy`). */
+  policies?: readonly Policy[];
 }
 
 /** A baseline prepared for judging many apps: rates memoized per category and permission. */
@@ -85,6 +88,11 @@ export class Judge {
     if (this.baseline.era !== undefined) result.era = { api: this.baseline.era, targetNewer: (manifest.targetSdk ?? 0) > this.baseline.era };
     // The app's own permissions say nothing about it against other apps: the risk leaves them out too.
     if (this.scorer) result.risk = this.scorer.estimate(category.category, requested.filter((p) => !isOwnPermission(manifest, p)), options.prevalence);
+    if (options.policies?.length) {
+      const subject = { manifest, ...(category.category ? { category: category.category } : {}), ...(result.risk ? { risk: result.risk.probability } : {}), ...(result.risk?.atypicality ? { atypicality: result.risk.atypicality.percentile } : {}) };
+      for (const p of options.policies) findings.push(...evaluatePolicy(p, subject));
+      findings.sort((a, b) => levelRank(b.level) - levelRank(a.level) || a.checkId.localeCompare(b.checkId) || a.subject.localeCompare(b.subject));
+    }
     return result;
   }
 }

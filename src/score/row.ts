@@ -6,7 +6,7 @@
  */
 import { requestedPermissionNames } from "../extract/manifest/model.js";
 import type { CheckResult } from "./judge.js";
-import { checkById } from "./registry.js";
+import { wordFinding } from "./registry.js";
 import type { Finding, Level } from "./types.js";
 
 export const ROW_SCHEMA_VERSION = 1;
@@ -37,7 +37,7 @@ export interface AppRow extends RowKey {
 
 /** A finding's message, with the reasons folded into it (`also`), worded by their checks. */
 function messageWithAlso(f: Finding): string {
-  const word = (checkId: string, data: Finding["data"]) => checkById(checkId)?.message({ subject: f.subject, data }) ?? checkId;
+  const word = (checkId: string, data: Finding["data"]) => wordFinding({ checkId, subject: f.subject, data });
   return [word(f.checkId, f.data), ...(f.also ?? []).map((a) => `also (${a.checkId}): ${word(a.checkId, a.data)}`)].join(" ");
 }
 

@@ -45,6 +45,8 @@ export async function runPool(inputs: SweepInput[], options: PoolOptions, done: 
     ...(options.judge.category ? { category: options.judge.category } : {}),
     ...(options.judge.categoryIndex ? { categoryIndex: [...options.judge.categoryIndex] } : {}),
     levels: [...(options.judge.levels ?? new Map())],
+    ...(options.judge.policies ? { policies: [...options.judge.policies] } : {}),
+    ...(options.judge.prevalence !== undefined ? { prevalence: options.judge.prevalence } : {}),
   };
   const file = workerFile();
   let next = 0;

@@ -3,6 +3,7 @@
  */
 import { parentPort, workerData } from "node:worker_threads";
 import { Judge } from "../../score/judge.js";
+import type { Policy } from "../../score/policy/policy.js";
 import type { Level } from "../../score/types.js";
 import { readBaselineFile } from "../baseline.js";
 import { scoreToLine, type SweepFormat, type SweepInput } from "./rows.js";
@@ -13,6 +14,9 @@ export interface WorkerSetup {
   category?: string;
   categoryIndex?: [string, string][];
   levels?: [string, Level | "off"][];
+  /** Policies in force (plain data: they cross to the worker as they are). */
+  policies?: Policy[];
+  prevalence?: number;
 }
 
 const setup = workerData as WorkerSetup;
@@ -21,6 +25,8 @@ const options = {
   ...(setup.category ? { category: setup.category } : {}),
   ...(setup.categoryIndex ? { categoryIndex: new Map(setup.categoryIndex) } : {}),
   levels: new Map(setup.levels ?? []),
+  ...(setup.policies ? { policies: setup.policies } : {}),
+  ...(setup.prevalence !== undefined ? { prevalence: setup.prevalence } : {}),
 };
 
 // Inputs come in small batches, to keep the messaging cost per app low.

@@ -7,7 +7,7 @@ import type { CheckResult } from "../judge.js";
 import type { PermissionOrigin } from "../merge-report.js";
 import { serviceType } from "../../platform/foreground-services.js";
 import { isOwnPermission } from "../frequency.js";
-import { checkById, checkIdsTagged } from "../registry.js";
+import { checkIdsTagged, wordFinding } from "../registry.js";
 import { levelRank, type Level } from "../types.js";
 
 const TRIM_CHECKS = checkIdsTagged("trim");
@@ -63,7 +63,8 @@ export function planTrim(
   // Folded findings (score/judge.ts) carry other checks' reasons in `also`: each is a reason of its own here.
   const all = result.findings.flatMap((f) => [f, ...(f.also ?? []).map((a) => ({ ...f, checkId: a.checkId, level: a.level, data: a.data }))]);
   for (const f of all) {
-    if (!TRIM_CHECKS.has(f.checkId)) continue;
+    // A permission a policy rule forbids is a removal candidate too; the reason names the rule.
+    if (!TRIM_CHECKS.has(f.checkId) && !(f.checkId.startsWith("policy:") && f.data.removable)) continue;
     const need = needed.get(f.subject);
     if (need) {
       kept.set(f.subject, need);
@@ -83,7 +84,7 @@ export function planTrim(
       if (origin?.libraries.length) c.libraries = origin.libraries;
       byPermission.set(f.subject, c);
     }
-    c.reasons.push({ checkId: f.checkId, level: f.level, message: checkById(f.checkId)?.message(f) ?? f.checkId });
+    c.reasons.push({ checkId: f.checkId, level: f.level, message: wordFinding(f) });
     if (f.checkId === "no-effect-at-target" && typeof f.data.limitTo === "number" && c.action.kind === "delete") {
       c.action = { kind: "limit", maxSdkVersion: f.data.limitTo };
     }
@@ -156,6 +157,7 @@ function safety(c: TrimCandidate): string {
   if (ids.has("ungrantable-permission")) parts.push("a store app is not granted it");
   if (ids.has("background-location-alone")) parts.push("it grants nothing without foreground location");
   if (ids.has("unknown-permission")) parts.push("the platform defines no such permission");
+  if ([...ids].some((i) => i.startsWith("policy:"))) parts.push("a policy in force forbids it");
   if (ids.has("sensitive-uncommon") || ids.has("uncommon-for-category")) parts.push("no component, service type or declaration in the manifest needs it (check the code before removing)");
   return parts.join("; ");
 }
