@@ -5,7 +5,7 @@
 import type { AppRow } from "../score/row.js";
 import { csvCell } from "../util/csv.js";
 
-export const ROW_CSV_COLUMNS = ["id", "size", "mtimeMs", "status", "package", "versionName", "versionCode", "category", "fallback", "risk", "band", "errors", "warnings", "notes", "checks", "errorKind", "errorMessage", "findings"] as const;
+export const ROW_CSV_COLUMNS = ["id", "size", "mtimeMs", "status", "package", "versionName", "versionCode", "category", "fallback", "risk", "band", "errors", "warnings", "notes", "checks", "errorKind", "errorMessage", "findings", "atypicality", "riskAtPrevalence"] as const;
 
 export function csvHeader(): string {
   return `${ROW_CSV_COLUMNS.join(",")}\n`;
@@ -31,6 +31,8 @@ export function rowToCsv(r: AppRow): string {
     errorKind: r.error?.kind,
     errorMessage: r.error?.message,
     // Every finding in words, one after another: `level checkId subject: message`, separated by " | ".
+    atypicality: r.atypicality,
+    riskAtPrevalence: r.riskAtPrevalence !== undefined ? r.riskAtPrevalence.toFixed(4) : undefined,
     findings: r.findings?.map((f) => `${f.level} ${f.checkId} ${f.subject}${f.message ? `: ${f.message}` : ""}`).join(" | "),
   };
   return `${ROW_CSV_COLUMNS.map((c) => csvCell(cells[c])).join(",")}\n`;
@@ -49,5 +51,6 @@ export function rowFromCsv(f: readonly string[]): AppRow | undefined {
     ...(risk !== undefined ? { risk } : {}),
     ...(f[10] ? { band: f[10] } : {}),
     ...(f[8] ? { fallback: f[8] } : {}),
+    ...(f[18] ? { atypicality: Number(f[18]) } : {}),
   };
 }

@@ -10,6 +10,8 @@ export interface SweepTotals {
   unknownCategory?: number;
   /** Apps that tripped --fail-on or --max-risk. */
   gated?: number;
+  /** The labeled corpus's base rate the risks are relative to. */
+  baseRate?: number;
   scored: number;
   failed: number;
   byBand: Record<string, number>;
@@ -26,7 +28,7 @@ export function sweepSummaryText(s: SweepTotals): string {
   if (s.notManifests) out.push(`Passed over ${s.notManifests} .xml file${s.notManifests === 1 ? "" : "s"} that are not manifests (resource files).`);
   if (s.unknownCategory) out.push(`${s.unknownCategory} app${s.unknownCategory === 1 ? "" : "s"} named a category the baseline does not have: judged against all categories pooled (see the fallback column).`);
   const bands = ["high", "elevated", "low"].filter((b) => s.byBand[b]).map((b) => `${s.byBand[b]} ${b}`);
-  if (bands.length) out.push(`Risk bands: ${bands.join(", ")}.`);
+  if (bands.length) out.push(`Risk bands: ${bands.join(", ")}${s.baseRate !== undefined ? ` (risks relative to a base rate of ${(100 * s.baseRate).toFixed(0)}% flagged in the labeled corpus)` : ""}.`);
   if (s.top.length) {
     out.push("Highest risks:");
     for (const t of s.top.slice(0, 10)) out.push(`  ${(100 * t.risk).toFixed(0).padStart(3)}%  ${t.package ?? ""}  ${t.id}`);

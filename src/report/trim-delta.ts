@@ -15,7 +15,8 @@ export function trimToText(plan: TrimPlan, file: string, caution: string | undef
   out.push(s.bold(`${plan.package}: ${plan.candidates.length} permission${plan.candidates.length === 1 ? "" : "s"} worth removing or limiting`));
   out.push(...wrap(`  ${file}`, 80, 2));
   if (plan.risk !== undefined) {
-    out.push(`  risk now ${pct(plan.risk)}${plan.riskWithoutAll !== undefined ? `; with every change below ${pct(plan.riskWithoutAll)}` : ""}`);
+    out.push(...wrap(`  risk now ${pct(plan.risk)}${plan.riskWithoutAll !== undefined ? `; with every change below ${pct(plan.riskWithoutAll)}` : ""} (base rate ${pct(plan.baseRate ?? 0)} of the labeled corpus${plan.prevalence ? `; at a prevalence of ${pct(plan.prevalence.share)}: ${pct(plan.prevalence.probability)} now` : ""})`, 80, 4));
+    if (plan.atypicality) out.push(`  atypicality: more atypical than ${Math.floor(plan.atypicality.percentile)}% of ${plan.atypicality.category ?? "all"} apps`);
     if (caution) out.push(...wrap(`  ${caution}`, 80, 2).map((l) => s.dim(l)));
   }
   plan.candidates.forEach((c, i) => {
@@ -59,7 +60,9 @@ export function deltaToText(d: Delta, files: [string, string], caution: string |
   out.push(...wrap(`  ${files[0]} → ${files[1]}`, 80, 4));
   if (d.before.targetSdk !== d.after.targetSdk) out.push(`  targetSdk ${d.before.targetSdk ?? "—"} → ${d.after.targetSdk ?? "—"}`);
   if (d.before.risk !== undefined && d.after.risk !== undefined) {
-    out.push(`  risk ${pct(d.before.risk)} (${d.before.band}) → ${pct(d.after.risk)} (${d.after.band})`);
+    out.push(`  risk ${pct(d.before.risk)} (${d.before.band}) → ${pct(d.after.risk)} (${d.after.band}); base rate ${pct(d.after.baseRate ?? 0)} of the labeled corpus`);
+    if (d.before.riskAtPrevalence !== undefined && d.after.riskAtPrevalence !== undefined) out.push(`  at your prevalence: ${pct(d.before.riskAtPrevalence)} → ${pct(d.after.riskAtPrevalence)}`);
+    if (d.before.atypicality !== undefined && d.after.atypicality !== undefined) out.push(`  atypicality percentile ${Math.floor(d.before.atypicality)} → ${Math.floor(d.after.atypicality)}`);
     if (caution) out.push(...wrap(`  ${caution}`, 80, 2).map((l) => s.dim(l)));
   }
   out.push("", s.bold(`Permissions added (${d.added.length})`));

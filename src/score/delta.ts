@@ -13,6 +13,11 @@ export interface AppVersion {
   targetSdk?: number;
   risk?: number;
   band?: string;
+  baseRate?: number;
+  /** The risk at the user's prevalence (`--prevalence`). */
+  riskAtPrevalence?: number;
+  /** Atypicality percentile among the baseline's apps of the category. */
+  atypicality?: number;
 }
 
 export interface PermissionChange {
@@ -56,7 +61,9 @@ function version(r: CheckResult): AppVersion {
     ...(m.versionName !== undefined ? { versionName: m.versionName } : {}),
     ...(m.versionCode !== undefined ? { versionCode: m.versionCode } : {}),
     ...(m.targetSdk !== undefined ? { targetSdk: m.targetSdk } : {}),
-    ...(r.risk ? { risk: r.risk.probability, band: r.risk.band } : {}),
+    ...(r.risk ? { risk: r.risk.probability, band: r.risk.band, baseRate: r.risk.baseRate } : {}),
+    ...(r.risk?.prevalence ? { riskAtPrevalence: r.risk.prevalence.probability } : {}),
+    ...(r.risk?.atypicality ? { atypicality: r.risk.atypicality.percentile } : {}),
   };
 }
 

@@ -27,6 +27,10 @@ export interface AppRow extends RowKey {
   fallback?: string;
   risk?: number;
   band?: string;
+  /** The risk at the user's prevalence (`--prevalence`). */
+  riskAtPrevalence?: number;
+  /** Atypicality percentile among the baseline's apps of the category (no labels involved). */
+  atypicality?: number;
   counts?: Record<Level, number>;
   /** Each finding with its message (rows read back from CSV carry none). */
   findings?: { checkId: string; level: Level; subject: string; message?: string }[];
@@ -63,6 +67,8 @@ export function rowOf(key: RowKey, r: CheckResult): AppRow {
   if (r.risk) {
     row.risk = r.risk.probability;
     row.band = r.risk.band;
+    if (r.risk.prevalence) row.riskAtPrevalence = r.risk.prevalence.probability;
+    if (r.risk.atypicality) row.atypicality = Math.round(10 * r.risk.atypicality.percentile) / 10;
     row.whatIf = r.risk.whatIf.filter((w) => w.change < 0).slice(0, 5).map((w) => ({ permission: w.permission, without: w.without }));
   }
   return row;

@@ -130,7 +130,7 @@ export async function sweep(options: SweepOptions): Promise<SweepSummary> {
     ...(options.shard ? { shard: options.shard } : {}),
     output: options.output,
     ...(options.html ? { html: options.html } : {}),
-    ...(judge.scorer ? { caution: judge.file.caution } : {}),
+    ...(judge.scorer ? { caution: judge.file.caution, baseRate: judge.scorer.model.evaluation.baseRate } : {}),
     rows: () => readRows(options.output, options.format),
   };
   if (options.html) writeSweepReport({ output: options.output, format: options.format, html: options.html, loaded: { judge, baselinePath, baselineName }, inputs: inputs.length });

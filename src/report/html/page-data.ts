@@ -15,6 +15,7 @@ export interface PageRow {
   fallback: string | null;
   risk: number | null;
   band: string | null;
+  atypicality: number | null;
   status: "scored" | "failed";
   counts: { error: number; warning: number; note: number } | null;
   findings: PageFinding[];

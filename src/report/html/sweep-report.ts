@@ -53,6 +53,7 @@ export function sweepToHtml(input: SweepReportInput): string {
       fallback: r.fallback ?? null,
       risk: r.risk ?? null,
       band: r.band ?? null,
+      atypicality: r.atypicality ?? null,
       status: r.status,
       counts: r.counts ?? null,
       findings: r.findings ?? [],
@@ -89,6 +90,7 @@ ${SWEEP_PAGE_CSS}</style>
   <label>Category <select id="f-category"><option value="">all</option></select></label>
   <label>Band <select id="f-band"><option value="">all</option><option>high</option><option>elevated</option><option>low</option><option value="failed">could not be read</option></select></label>
   <label>Check <select id="f-check"><option value="">any</option></select></label>
+  <label>Atypical <select id="f-atypical"><option value="">any</option><option value="90">above the 90th percentile</option><option value="95">above the 95th</option><option value="99">above the 99th</option></select></label>
   <label>Search <input type="search" id="f-text" placeholder="package or file"></label>
   <span class="legend" id="shown"></span>
 </div>
@@ -98,6 +100,7 @@ ${SWEEP_PAGE_CSS}</style>
     <th data-key="category" aria-sort="none">Category</th>
     <th data-key="risk" aria-sort="descending" class="num">Risk</th>
     <th data-key="band" aria-sort="none">Band</th>
+    <th data-key="atypicality" aria-sort="none" class="num" title="percentile among the baseline's apps of the category; no labels involved">Atypical</th>
     <th data-key="warnings" aria-sort="none" class="num">Warnings</th>
     <th data-key="notes" aria-sort="none" class="num">Notes</th>
   </tr></thead>

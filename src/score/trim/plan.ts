@@ -38,6 +38,10 @@ export interface TrimPlan {
   package: string;
   risk?: number;
   riskWithoutAll?: number;
+  /** The base rate the risk is relative to, its figure at the user's prevalence, and the atypicality. */
+  baseRate?: number;
+  prevalence?: { share: number; probability: number };
+  atypicality?: { percentile: number; category?: string };
   candidates: TrimCandidate[];
   /** Flagged permissions trim leaves alone because the manifest shows the app needs them. */
   kept: { permission: string; why: string }[];
@@ -105,6 +109,9 @@ export function planTrim(
   const plan: TrimPlan = { package: m.package, candidates, kept: [...kept].map(([permission, why]) => ({ permission, why })).sort((a, b) => a.permission.localeCompare(b.permission)), typos };
   if (result.risk) {
     plan.risk = result.risk.probability;
+    plan.baseRate = result.risk.baseRate;
+    if (result.risk.prevalence) plan.prevalence = { share: result.risk.prevalence.share, probability: result.risk.prevalence.probability };
+    if (result.risk.atypicality) plan.atypicality = { percentile: result.risk.atypicality.percentile, ...(result.risk.atypicality.category ? { category: result.risk.atypicality.category } : {}) };
     if (options.riskWithout && candidates.length) {
       const gone = new Set(candidates.filter((c) => c.action.kind !== "limit").map((c) => c.permission));
       plan.riskWithoutAll = options.riskWithout(requested.filter((p) => !gone.has(p)));

@@ -89,6 +89,7 @@ const checkFilter = byId<HTMLSelectElement>("f-check");
 for (const c of data.checks) checkFilter.appendChild(el("option", { value: c.id }, `${c.id} (${data.summary.byCheck[c.id] ?? 0})`));
 const bandFilter = byId<HTMLSelectElement>("f-band");
 const textFilter = byId<HTMLInputElement>("f-text");
+const atypicalFilter = byId<HTMLSelectElement>("f-atypical");
 
 const state = { key: "risk", dir: -1 };
 function sortValue(r: PageRow, key: string): string | number {
@@ -97,6 +98,7 @@ function sortValue(r: PageRow, key: string): string | number {
     case "category": return r.category || "";
     case "risk": return r.risk == null ? -1 : r.risk;
     case "band": return ({ high: 3, elevated: 2, low: 1 } as Record<string, number>)[r.band ?? ""] || 0;
+    case "atypicality": return r.atypicality == null ? -1 : r.atypicality;
     case "warnings": return r.counts ? r.counts.warning + 100 * r.counts.error : -1;
     case "notes": return r.counts ? r.counts.note : -1;
     default: return 0;
@@ -106,10 +108,12 @@ function sortValue(r: PageRow, key: string): string | number {
 const tbody = document.querySelector("#apps tbody")!;
 function render(): void {
   const cat = categoryFilter.value, band = bandFilter.value, check = checkFilter.value, text = textFilter.value.toLowerCase();
+  const atypicalAbove = atypicalFilter.value === "" ? -1 : Number(atypicalFilter.value);
   const rows = data.rows.filter((r) => {
     if (cat && (cat === "(pooled)" ? r.category : r.category !== cat)) return false;
     if (band && (band === "failed" ? r.status !== "failed" : r.band !== band)) return false;
     if (check && !r.findings.some((f) => f.checkId === check)) return false;
+    if (atypicalAbove >= 0 && !(r.atypicality != null && r.atypicality > atypicalAbove)) return false;
     if (text && (r.package || "").toLowerCase().indexOf(text) < 0 && r.id.toLowerCase().indexOf(text) < 0) return false;
     return true;
   });
@@ -129,10 +133,11 @@ function render(): void {
     const b = el("td");
     b.appendChild(el("span", { class: `pill ${r.status === "failed" ? "failed" : r.band || ""}` }, r.status === "failed" ? "failed" : r.band || "—"));
     tr.appendChild(b);
+    tr.appendChild(el("td", { class: "num" }, r.atypicality == null ? "—" : `${Math.floor(r.atypicality)}`));
     tr.appendChild(el("td", { class: "num" }, r.counts ? String(r.counts.warning + r.counts.error) : "—"));
     tr.appendChild(el("td", { class: "num" }, r.counts ? String(r.counts.note) : "—"));
     const details = el("tr", { class: "details", hidden: "" });
-    const td = el("td", { colspan: "6" });
+    const td = el("td", { colspan: "7" });
     if (r.error) td.appendChild(el("div", { class: "lvl-error" }, `Could not be read: ${r.error}`));
     if (r.findings.length) {
       const ul = el("ul");
@@ -174,7 +179,7 @@ document.querySelectorAll<HTMLElement>("#apps th").forEach((th) => {
     render();
   });
 });
-for (const f of [categoryFilter, bandFilter, checkFilter]) f.addEventListener("change", render);
+for (const f of [categoryFilter, bandFilter, checkFilter, atypicalFilter]) f.addEventListener("change", render);
 textFilter.addEventListener("input", render);
 render();
 
