@@ -116,6 +116,7 @@ const COVERED_ELSEWHERE: Record<string, string> = {
   "ops/sweep/report.ts": "test/report/html/sweep-report.test.ts",
   "cli/baseline-command.ts": "test/cli/reviewer-fixes.test.ts",
   "cli/rules-command.ts": "test/cli/policies.test.ts",
+  "report/html/page-shell.ts": "test/report/html/check-report.test.ts",
   "report/rules.ts": "test/cli/policies.test.ts",
   "ops/policy.ts": "test/score/policy/policy.test.ts",
   "report/learn.ts": "test/cli/learn-command.test.ts",

@@ -8,7 +8,7 @@ import { ResourceTable } from "../binary/resource-table.js";
 import { buildManifest, type ReferenceResolver } from "../manifest/build.js";
 import type { Manifest } from "../manifest/model.js";
 import { decodeProtoXml, looksLikeProtoXml, protoResourceResolver } from "../proto/proto-xml.js";
-import { entryProvenance, type ArchiveEntryInfo, type ArchiveReader } from "./zip.js";
+import { entryProvenance, readOptionalTable, type ArchiveEntryInfo, type ArchiveReader } from "./zip.js";
 
 export const MANIFEST_ENTRY = "AndroidManifest.xml";
 export const RESOURCE_TABLE_ENTRY = "resources.arsc";
@@ -67,16 +67,7 @@ export function fromApk(archive: ArchiveReader, options: ReadOptions = {}): Mani
  */
 function fromProtoApk(archive: ArchiveReader, entries: ArchiveEntryInfo[], entry: ArchiveEntryInfo, bytes: Uint8Array): Manifest {
   const hasTable = entries.some((e) => e.name === PROTO_RESOURCE_TABLE_ENTRY);
-  let resolve: ReferenceResolver | undefined;
-  let tableProblem: string | undefined;
-  if (hasTable) {
-    try {
-      resolve = protoResourceResolver(archive.read(PROTO_RESOURCE_TABLE_ENTRY, "MAX_RESOURCE_TABLE_BYTES"));
-    } catch (e) {
-      if (!(e instanceof InputError)) throw e;
-      tableProblem = e.message;
-    }
-  }
+  const { value: resolve, problem: tableProblem } = readOptionalTable(archive, PROTO_RESOURCE_TABLE_ENTRY, hasTable, protoResourceResolver);
   const m = buildManifest(decodeProtoXml(bytes), { kind: "proto-apk", encoding: "protobuf", entry: entryProvenance(entry), resourceTable: hasTable }, resolve);
   if (tableProblem) m.notes.push(`${PROTO_RESOURCE_TABLE_ENTRY} could not be read (${tableProblem}); references are shown as ids`);
   m.notes.push(...archive.notes);

@@ -5,10 +5,10 @@
  */
 import { InputError, withEntry } from "../../errors.js";
 import { decodeBinaryXml, looksLikeBinaryXml } from "../binary/binary-xml.js";
-import { buildManifest, type ReferenceResolver } from "../manifest/build.js";
+import { buildManifest } from "../manifest/build.js";
 import { requestedPermissionNames, type Manifest } from "../manifest/model.js";
 import { decodeProtoXml, protoResourceResolver } from "../proto/proto-xml.js";
-import { entryProvenance, type ArchiveEntryInfo, type ArchiveReader } from "./zip.js";
+import { entryProvenance, readOptionalTable, type ArchiveEntryInfo, type ArchiveReader } from "./zip.js";
 
 /** Archive entries that make an app bundle module's manifest: `<module>/manifest/AndroidManifest.xml`. */
 export const BUNDLE_MANIFEST = /^([^/]+)\/manifest\/AndroidManifest\.xml$/;
@@ -37,17 +37,8 @@ export function fromBundle(archive: ArchiveReader, entries: ArchiveEntryInfo[]):
     }
   };
   const hasTable = entries.some((e) => e.name === BUNDLE_RESOURCE_TABLE);
-  let resolve: ReferenceResolver | undefined;
-  let tableProblem: string | undefined;
-  if (hasTable) {
-    try {
-      resolve = protoResourceResolver(archive.read(BUNDLE_RESOURCE_TABLE, "MAX_RESOURCE_TABLE_BYTES"));
-    } catch (e) {
-      // As for resources.arsc: a damaged table costs the labels, not the manifest.
-      if (!(e instanceof InputError)) throw e;
-      tableProblem = e.message;
-    }
-  }
+  // As for resources.arsc: a damaged table costs the labels, not the manifest.
+  const { value: resolve, problem: tableProblem } = readOptionalTable(archive, BUNDLE_RESOURCE_TABLE, hasTable, protoResourceResolver);
   const m = buildManifest(read(base), { kind: "app-bundle", encoding: "protobuf", entry: entryProvenance(base.entry), resourceTable: hasTable }, resolve);
   if (tableProblem) m.notes.push(`${BUNDLE_RESOURCE_TABLE} could not be read (${tableProblem}); references are shown as ids`);
   for (const p of m.usesPermissions) p.module = "base";

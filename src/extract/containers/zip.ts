@@ -17,7 +17,7 @@
  */
 import { crc32, inflateRawSync } from "node:zlib";
 import AdmZip from "adm-zip";
-import { ArchiveError, LimitError } from "../../errors.js";
+import { ArchiveError, InputError, LimitError } from "../../errors.js";
 import { LIMITS, type LimitName } from "../../limits.js";
 
 export interface ArchiveEntryInfo {
@@ -318,4 +318,18 @@ function admError(e: unknown, entry?: string): Error {
       ? `archive declares the same entry twice (${msg.replace(/^.*Duplicate entry name\s*/i, "")}); refusing an ambiguous archive`
       : `damaged archive (${msg})`;
   return new ArchiveError(entry ? `${entry}: ${what}` : what, { cause: e });
+}
+
+/**
+ * Reads an optional table entry with `parse`, for labels: a damaged one costs the labels, not the manifest
+ * (references then stay ids), so an InputError becomes a problem to note instead of a failure.
+ */
+export function readOptionalTable<T>(archive: ArchiveReader, entry: string, present: boolean, parse: (bytes: Uint8Array) => T): { value?: T; problem?: string } {
+  if (!present) return {};
+  try {
+    return { value: parse(archive.read(entry, "MAX_RESOURCE_TABLE_BYTES")) };
+  } catch (e) {
+    if (!(e instanceof InputError)) throw e;
+    return { problem: e.message };
+  }
 }

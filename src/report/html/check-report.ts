@@ -11,6 +11,7 @@ import type { Level } from "../../score/types.js";
 import { TOOL_VERSION } from "../../version.js";
 import { alsoMessages, categoryText, messageOf, notJudgedText, type CheckRun, type CheckRunInfo } from "../check.js";
 import { CHECK_PAGE_CSS } from "./generated/page-assets.js";
+import { esc, pageShell } from "./page-shell.js";
 
 export interface HtmlCheckRun extends CheckRun {
   /** Every requested permission with its category rate (score/requested.ts). */
@@ -20,9 +21,6 @@ export interface HtmlCheckRun extends CheckRun {
 const pct = (x: number) => `${(100 * x).toFixed(x < 0.01 ? 2 : x < 0.1 ? 1 : 0)}%`;
 const short = (n: string) => n.replace(/^android\.permission\./, "");
 
-function esc(s: string): string {
-  return s.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!);
-}
 
 const LEVEL_TITLES: Record<Level, string> = { error: "Errors", warning: "Warnings", note: "Notes" };
 
@@ -97,18 +95,5 @@ export function checkToHtml(runs: HtmlCheckRun[], info: CheckRunInfo & { thresho
   if (failed.length) body.push(`<h3>Could not be read (${failed.length})</h3><ul>${failed.map((r) => `<li>${esc(r.file)}: ${esc(r.error?.message ?? "unreadable")}</li>`).join("")}</ul>`);
   read.forEach((r, i) => body.push(appSection(r, info, i)));
   body.push(`<footer>${esc(info.caution)}</footer>`);
-  return `<!doctype html>
-<html lang="en">
-<head>
-<meta charset="utf-8">
-<meta name="viewport" content="width=device-width, initial-scale=1">
-<title>${esc(title)}</title>
-<style>
-${CHECK_PAGE_CSS.replace(/<\/(style)/gi, "<\\/$1")}</style>
-</head>
-<body>
-${body.join("\n")}
-</body>
-</html>
-`;
+  return pageShell(title, CHECK_PAGE_CSS, body.join("\n"));
 }

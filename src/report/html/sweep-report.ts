@@ -10,6 +10,7 @@ import { EMBED_ALL_UP_TO, EMBED_TOP, type SweepDigest } from "../../score/sweep-
 import { TOOL_VERSION } from "../../version.js";
 import { SWEEP_PAGE_CSS, SWEEP_PAGE_SCRIPT } from "./generated/page-assets.js";
 import type { PageData } from "./page-data.js";
+import { esc, pageShell } from "./page-shell.js";
 
 export interface SweepReportInput {
   /** The sweep's rows, digested (score/sweep-digest.ts): figures over all of them, and the rows to embed. */
@@ -34,9 +35,6 @@ function inlineScript(js: string): string {
   return js.replace(/<\/(script)/gi, "<\\/$1");
 }
 
-function esc(s: string): string {
-  return s.replace(/[&<>"]/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;" })[c]!);
-}
 
 export function sweepToHtml(input: SweepReportInput): string {
   const data: PageData = {
@@ -65,17 +63,7 @@ export function sweepToHtml(input: SweepReportInput): string {
     summary: { histogram: input.digest.histogram, byCategory: input.digest.byCategory, byCheck: input.digest.byCheck, complete: input.digest.complete, results: input.results },
   };
   const title = input.title ?? "overask sweep report";
-  return `<!doctype html>
-<html lang="en">
-<head>
-<meta charset="utf-8">
-<meta name="viewport" content="width=device-width, initial-scale=1">
-<title>${esc(title)}</title>
-<style>
-${SWEEP_PAGE_CSS}</style>
-</head>
-<body>
-<h1>${esc(title)}</h1>
+  return pageShell(title, SWEEP_PAGE_CSS, `<h1>${esc(title)}</h1>
 <div class="meta" id="meta"></div>
 <div class="caution" id="caution"></div>
 <div class="tiles" id="tiles"></div>
@@ -114,8 +102,5 @@ ${SWEEP_PAGE_CSS}</style>
 
 <script type="application/json" id="data">${safeJson(data)}</script>
 <script>
-${inlineScript(SWEEP_PAGE_SCRIPT)}</script>
-</body>
-</html>
-`;
+${inlineScript(SWEEP_PAGE_SCRIPT)}</script>`);
 }

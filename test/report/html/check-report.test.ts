@@ -7,14 +7,14 @@
 import { existsSync, mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { chromium, type BrowserContext } from "playwright-core";
+import type { BrowserContext } from "playwright-core";
+import { hasChromium, launchBrowser, watchedPage } from "../../helpers/browser.js";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { cli } from "../../helpers/cli.js";
 import { APK_DIR } from "../../helpers/paths.js";
 
-const CHROMIUM = "/usr/bin/chromium";
 
-describe.runIf(existsSync(CHROMIUM))("the check report in chromium", () => {
+describe.runIf(hasChromium)("the check report in chromium", () => {
   const dir = mkdtempSync(join(tmpdir(), "overask-check-html-"));
   const page1 = join(dir, "check.html");
   let browser: BrowserContext;
@@ -23,12 +23,7 @@ describe.runIf(existsSync(CHROMIUM))("the check report in chromium", () => {
     const { code, stdout } = await cli(["check", "-c", "TOOLS", "-f", "html", `${APK_DIR}pocketlamp.apk`, `${APK_DIR}snapshare.apk`, join(dir, "missing.apk")]);
     expect(code).toBe(3); // one input could not be read; the page still holds the others
     writeFileSync(page1, stdout);
-    browser = await chromium.launchPersistentContext(join(dir, "profile"), {
-      executablePath: CHROMIUM,
-      headless: true,
-      viewport: { width: 1000, height: 1400 },
-      args: ["--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
-    });
+    browser = await launchBrowser(dir, { width: 1000, height: 1400 });
   }, 60_000);
 
   afterAll(async () => {
@@ -36,14 +31,7 @@ describe.runIf(existsSync(CHROMIUM))("the check report in chromium", () => {
   });
 
   it("shows each app's header, risk and caution, grouped findings and permission bars, with no errors or requests", async () => {
-    const page = await browser.newPage();
-    const problems: string[] = [];
-    const requests: string[] = [];
-    page.on("console", (m) => {
-      if (m.type() === "error" || m.type() === "warning") problems.push(m.text());
-    });
-    page.on("pageerror", (e) => problems.push(e.message));
-    page.on("request", (r) => requests.push(r.url()));
+    const { page, problems, requests } = await watchedPage(browser);
     await page.goto(`file://${page1}`);
     expect(problems).toEqual([]);
     expect(requests.filter((u) => !u.startsWith("file://"))).toEqual([]);

@@ -6,13 +6,12 @@
 import { existsSync, mkdtempSync, readdirSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { chromium, type BrowserContext } from "playwright-core";
+import type { BrowserContext } from "playwright-core";
+import { hasChromium, launchBrowser, watchedPage } from "../../helpers/browser.js";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { cli } from "../../helpers/cli.js";
 import { FIXTURES, ROOT } from "../../helpers/paths.js";
 
-const CHROMIUM = "/usr/bin/chromium";
-const hasChromium = existsSync(CHROMIUM);
 
 describe.runIf(hasChromium)("the sweep's HTML report in chromium", () => {
   const dir = mkdtempSync(join(tmpdir(), "overask-html-"));
@@ -23,12 +22,7 @@ describe.runIf(hasChromium)("the sweep's HTML report in chromium", () => {
     const { code } = await cli(["sweep", `${FIXTURES}apk`, "-o", join(dir, "r.jsonl"), "--html", report, "-b", `${ROOT}baselines/harbourview-demo.json`, "-j", "1"]);
     expect(code).toBe(0);
     // A fresh profile folder for every run.
-    browser = await chromium.launchPersistentContext(join(dir, "profile"), {
-      executablePath: CHROMIUM,
-      headless: true,
-      viewport: { width: 1200, height: 1400 },
-      args: ["--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
-    });
+    browser = await launchBrowser(dir, { width: 1200, height: 1400 });
   }, 60_000);
 
   afterAll(async () => {
@@ -36,14 +30,7 @@ describe.runIf(hasChromium)("the sweep's HTML report in chromium", () => {
   });
 
   it("loads with no console errors and no requests beyond the file, sorts, filters and expands by clicking", async () => {
-    const page = await browser.newPage();
-    const problems: string[] = [];
-    const requests: string[] = [];
-    page.on("console", (m) => {
-      if (m.type() === "error" || m.type() === "warning") problems.push(m.text());
-    });
-    page.on("pageerror", (e) => problems.push(e.message));
-    page.on("request", (r) => requests.push(r.url()));
+    const { page, problems, requests } = await watchedPage(browser);
     await page.goto(`file://${report}`);
     await page.waitForSelector("#apps tbody tr.app");
     expect(problems).toEqual([]);
