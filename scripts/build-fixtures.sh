@@ -95,6 +95,16 @@ done
 # A res/xml file compiled with a UTF-8 string pool, as the toolchain writes those.
 aapt dump xmltree "$APK/tidewatch.apk" res/xml/network_security_config.xml > "$DUMPS/tidewatch.network_security_config.xmltree.txt"
 
+# Dex code of the demo torch (fixtures/smali, assembled by Debian's smali) and dexdump's listing of it,
+# which test/extract/dex/dex.test.ts compares the dex reader with.
+if command -v smali >/dev/null && command -v dexdump >/dev/null; then
+  mkdir -p fixtures/dex
+  for part in classes classes2; do
+    smali assemble -o "fixtures/dex/beamtorch-$part.dex" "fixtures/smali/beamtorch/$part/"
+    dexdump -d "fixtures/dex/beamtorch-$part.dex" > "$DUMPS/beamtorch-$part.dexdump.txt"
+  done
+fi
+
 # The platform's own binary manifest (API 29), and aapt's dump of it.
 unzip -o -q -d "$WORK/fw" "$FRAMEWORK" AndroidManifest.xml
 cp "$WORK/fw/AndroidManifest.xml" fixtures/platform/framework-res-AndroidManifest.xml

@@ -64,6 +64,7 @@ function loadSeeds() {
       /* not an app folder */
     }
   }
+  for (const f of readdirSync(join(ROOT, "fixtures/dex"))) add("dex", `dex/${f}`, readFileSync(join(ROOT, "fixtures/dex", f)));
   const corpus = readFileSync(join(ROOT, "fixtures/corpus/harbourview.jsonl"), "utf8").split("\n").slice(0, 40).join("\n");
   add("jsonl", "corpus/harbourview-40.jsonl", Buffer.from(corpus));
   add("csv", "corpus/wide.csv", Buffer.from("SEND_SMS,CAMERA,READ_SMS,class\n1,0,1,S\n0,1,0,B\n0,0,0,B\n1,1,1,S\n"));
@@ -251,6 +252,10 @@ async function runOne(lib, input, tmp) {
     case "file": {
       const m = lib.readManifestBytes(input.bytes, "fuzz");
       lib.requestedPermissionNames(m);
+      return;
+    }
+    case "dex": {
+      lib.readDex(input.bytes);
       return;
     }
     case "arsc": {

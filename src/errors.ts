@@ -43,6 +43,11 @@ export class ProtoXmlError extends InputError {
   override name = "ProtoXmlError";
 }
 
+/** A Dalvik executable (classes.dex) cannot be read. */
+export class DexError extends InputError {
+  override name = "DexError";
+}
+
 /** The resource table (resources.arsc) cannot be decoded. */
 export class ResourceTableError extends InputError {
   override name = "ResourceTableError";

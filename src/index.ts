@@ -9,6 +9,7 @@ export { decodeBinaryXml } from "./extract/binary/binary-xml.js";
 export { ResourceTable } from "./extract/binary/resource-table.js";
 export { parsePlainXml } from "./extract/plain-xml.js";
 export { decodeProtoXml } from "./extract/proto/proto-xml.js";
+export { readDex, looksLikeDex, javaName, type DexFile, type DexClass, type DexMethodRef, type DexFieldRef } from "./extract/dex/dex.js";
 export { buildManifest, qualifyClassName } from "./extract/manifest/build.js";
 export * from "./extract/manifest/model.js";
 export type { XmlDocument, XmlElement, XmlAttribute } from "./extract/xml-tree.js";

@@ -33,6 +33,12 @@ export const LIMITS = {
   MAX_DEPTH: 256,
   /** Entries in one resource type chunk. */
   MAX_TYPE_ENTRIES: 1_000_000,
+  /** Largest dex file we read (classes.dex of big apps reach tens of MB). */
+  MAX_DEX_BYTES: 256 * 1024 * 1024,
+  /** Entries in one dex id table (strings, types, protos, fields, methods, classes). */
+  MAX_DEX_IDS: 4_000_000,
+  /** 16-bit code units of instructions in one dex file, all methods together. */
+  MAX_DEX_CODE_UNITS: 200_000_000,
   /** Hops when a string resource refers to another resource. */
   MAX_REFERENCE_HOPS: 8,
 } as const;

@@ -1,0 +1,238 @@
+/**
+ * A reader for Dalvik executables (`classes.dex` …; dex format versions 035–041, as the platform's
+ * "Dalvik Executable format" page defines them): bytes in, the id tables and, per class, which framework
+ * methods and fields its code references and which string constants it loads. Enough to tell which APIs an
+ * app's code can reach — not a disassembler. Every count and offset passes a named limit; a damaged file
+ * raises a DexError that says what was found.
+ */
+import { DexError } from "../../errors.js";
+import { LIMITS } from "../../limits.js";
+import { ByteReader, checkLimit } from "../binary/reader.js";
+
+export interface DexMethodRef {
+  /** Type descriptor of the class that declares the method: `Landroid/telephony/SmsManager;`. */
+  owner: string;
+  name: string;
+  /** Parameter type descriptors and the return type descriptor. */
+  params: string[];
+  returns: string;
+}
+
+export interface DexFieldRef {
+  owner: string;
+  name: string;
+  type: string;
+}
+
+export interface DexClass {
+  descriptor: string;
+  superclass?: string;
+  /** Indices into `methods`, `fields` and `strings` that this class's code uses (sorted, unique). */
+  methodRefs: number[];
+  fieldRefs: number[];
+  stringRefs: number[];
+}
+
+export interface DexFile {
+  version: string;
+  strings: string[];
+  types: string[];
+  methods: DexMethodRef[];
+  fields: DexFieldRef[];
+  classes: DexClass[];
+}
+
+const NO_INDEX = 0xffffffff;
+
+/** Dex files start with `dex\n` and a three-digit version and a NUL. */
+export function looksLikeDex(bytes: Uint8Array): boolean {
+  return bytes.length >= 8 && bytes[0] === 0x64 && bytes[1] === 0x65 && bytes[2] === 0x78 && bytes[3] === 0x0a && bytes[7] === 0;
+}
+
+/** Width in 16-bit code units of each opcode (Dalvik bytecode formats); 0: not a valid opcode. */
+const WIDTH = new Uint8Array(256);
+(() => {
+  const set = (from: number, to: number, w: number) => {
+    for (let op = from; op <= to; op++) WIDTH[op] = w;
+  };
+  set(0x00, 0x01, 1); WIDTH[0x02] = 2; WIDTH[0x03] = 3; WIDTH[0x04] = 1; WIDTH[0x05] = 2; WIDTH[0x06] = 3; WIDTH[0x07] = 1; WIDTH[0x08] = 2; WIDTH[0x09] = 3;
+  set(0x0a, 0x12, 1); WIDTH[0x13] = 2; WIDTH[0x14] = 3; WIDTH[0x15] = 2; WIDTH[0x16] = 2; WIDTH[0x17] = 3; WIDTH[0x18] = 5; WIDTH[0x19] = 2;
+  WIDTH[0x1a] = 2; WIDTH[0x1b] = 3; WIDTH[0x1c] = 2; WIDTH[0x1d] = 1; WIDTH[0x1e] = 1; WIDTH[0x1f] = 2; WIDTH[0x20] = 2; WIDTH[0x21] = 1; WIDTH[0x22] = 2; WIDTH[0x23] = 2;
+  WIDTH[0x24] = 3; WIDTH[0x25] = 3; WIDTH[0x26] = 3; WIDTH[0x27] = 1; WIDTH[0x28] = 1; WIDTH[0x29] = 2; WIDTH[0x2a] = 3; WIDTH[0x2b] = 3; WIDTH[0x2c] = 3;
+  set(0x2d, 0x3d, 2); set(0x44, 0x6d, 2); set(0x6e, 0x72, 3); set(0x74, 0x78, 3); set(0x7b, 0x8f, 1); set(0x90, 0xaf, 2); set(0xb0, 0xcf, 1); set(0xd0, 0xe2, 2);
+  WIDTH[0xfa] = 4; WIDTH[0xfb] = 4; WIDTH[0xfc] = 3; WIDTH[0xfd] = 3; WIDTH[0xfe] = 2; WIDTH[0xff] = 2;
+})();
+
+function uleb(r: ByteReader, at: { p: number }, what: string): number {
+  let v = 0;
+  for (let shift = 0; shift < 35; shift += 7) {
+    const b = r.u8(at.p++, what);
+    v += (b & 0x7f) * 2 ** shift;
+    if (b < 0x80) return v;
+  }
+  throw new DexError(`${what}: a ULEB128 value runs past 5 bytes at offset ${at.p}`);
+}
+
+/** MUTF-8 (modified UTF-8, as dex strings are stored) to a string. */
+function mutf8(bytes: Uint8Array, start: number, units: number, fail: (m: string) => Error): string {
+  let out = "";
+  let p = start;
+  for (let i = 0; i < units; i++) {
+    if (p >= bytes.length) throw fail(`string data at ${start} runs past the end of the file`);
+    const a = bytes[p++];
+    if (a < 0x80) out += String.fromCharCode(a);
+    else if ((a & 0xe0) === 0xc0) out += String.fromCharCode(((a & 0x1f) << 6) | (bytes[p++] & 0x3f));
+    else if ((a & 0xf0) === 0xe0) {
+      const b = bytes[p++];
+      const c = bytes[p++];
+      out += String.fromCharCode(((a & 0x0f) << 12) | ((b & 0x3f) << 6) | (c & 0x3f));
+    } else throw fail(`string data at ${start} has a byte 0x${a.toString(16)} that MUTF-8 does not use`);
+  }
+  return out;
+}
+
+export function readDex(bytes: Uint8Array): DexFile {
+  const fail = (m: string) => new DexError(m);
+  const r = new ByteReader(bytes, fail);
+  checkLimit("MAX_DEX_BYTES", bytes.length, "dex file has a size in bytes of");
+  if (!looksLikeDex(bytes)) throw new DexError("is not a dex file (no dex magic)");
+  const version = String.fromCharCode(bytes[4], bytes[5], bytes[6]);
+  if (!/^0(3[5-9]|4[01])$/.test(version)) throw new DexError(`has dex version ${version}; versions 035 to 041 are read`);
+  // header_item: endian_tag (0x28), then size/offset pairs of each id table.
+  if (r.u32(0x28, "header endian_tag") !== 0x12345678) throw new DexError("is byte-swapped (endian_tag is not 0x12345678); only little-endian dex files exist on devices");
+  const table = (at: number, what: string, limit: "MAX_DEX_IDS", entry: number) => {
+    const size = r.u32(at, `${what}_size`);
+    const off = r.u32(at + 4, `${what}_off`);
+    checkLimit(limit, size, `dex ${what} declares a count of`);
+    if (size) r.need(off, size * entry, `${what} table`);
+    return { size, off };
+  };
+  const strT = table(0x38, "string_ids", "MAX_DEX_IDS", 4);
+  const typeT = table(0x40, "type_ids", "MAX_DEX_IDS", 4);
+  const protoT = table(0x48, "proto_ids", "MAX_DEX_IDS", 12);
+  const fieldT = table(0x50, "field_ids", "MAX_DEX_IDS", 8);
+  const methodT = table(0x58, "method_ids", "MAX_DEX_IDS", 8);
+  const classT = table(0x60, "class_defs", "MAX_DEX_IDS", 32);
+
+  const strings = new Array<string>(strT.size);
+  for (let i = 0; i < strT.size; i++) {
+    const at = { p: r.u32(strT.off + 4 * i, "string_data_off") };
+    const units = uleb(r, at, "string length");
+    checkLimit("MAX_STRING_LENGTH", units, "dex string declares a length of");
+    strings[i] = mutf8(bytes, at.p, units, fail);
+  }
+  const str = (i: number, what: string) => {
+    if (i >= strings.length) throw new DexError(`${what} names string ${i}, past the ${strings.length} strings`);
+    return strings[i];
+  };
+  const types = new Array<string>(typeT.size);
+  for (let i = 0; i < typeT.size; i++) types[i] = str(r.u32(typeT.off + 4 * i, "type_id"), "type_id");
+  const type = (i: number, what: string) => {
+    if (i >= types.length) throw new DexError(`${what} names type ${i}, past the ${types.length} types`);
+    return types[i];
+  };
+  const protos = new Array<{ params: string[]; returns: string }>(protoT.size);
+  for (let i = 0; i < protoT.size; i++) {
+    const base = protoT.off + 12 * i;
+    const returns = type(r.u32(base + 4, "proto return_type_idx"), "proto_id");
+    const listOff = r.u32(base + 8, "proto parameters_off");
+    const params: string[] = [];
+    if (listOff) {
+      const n = r.u32(listOff, "type_list size");
+      checkLimit("MAX_DEX_IDS", n, "dex parameter list declares a count of");
+      r.need(listOff + 4, 2 * n, "type_list");
+      for (let k = 0; k < n; k++) params.push(type(r.u16(listOff + 4 + 2 * k, "type_item"), "type_list"));
+    }
+    protos[i] = { params, returns };
+  }
+  const fields = new Array<DexFieldRef>(fieldT.size);
+  for (let i = 0; i < fieldT.size; i++) {
+    const base = fieldT.off + 8 * i;
+    fields[i] = { owner: type(r.u16(base, "field class_idx"), "field_id"), type: type(r.u16(base + 2, "field type_idx"), "field_id"), name: str(r.u32(base + 4, "field name_idx"), "field_id") };
+  }
+  const methods = new Array<DexMethodRef>(methodT.size);
+  for (let i = 0; i < methodT.size; i++) {
+    const base = methodT.off + 8 * i;
+    const protoIdx = r.u16(base + 2, "method proto_idx");
+    if (protoIdx >= protos.length) throw new DexError(`method_id ${i} names proto ${protoIdx}, past the ${protos.length} protos`);
+    methods[i] = { owner: type(r.u16(base, "method class_idx"), "method_id"), name: str(r.u32(base + 4, "method name_idx"), "method_id"), ...protos[protoIdx] };
+  }
+
+  const classes: DexClass[] = [];
+  let codeUnits = 0;
+  for (let i = 0; i < classT.size; i++) {
+    const base = classT.off + 32 * i;
+    const descriptor = type(r.u32(base, "class_def class_idx"), "class_def");
+    const superIdx = r.u32(base + 8, "class_def superclass_idx");
+    const dataOff = r.u32(base + 24, "class_def class_data_off");
+    const refs = { m: new Set<number>(), f: new Set<number>(), s: new Set<number>() };
+    if (dataOff) {
+      const at = { p: dataOff };
+      const counts = [uleb(r, at, "class_data"), uleb(r, at, "class_data"), uleb(r, at, "class_data"), uleb(r, at, "class_data")];
+      for (const n of counts) checkLimit("MAX_DEX_IDS", n, "dex class data declares a member count of");
+      // Fields carry (field_idx_diff, access_flags); methods add code_off.
+      for (let k = 0; k < counts[0] + counts[1]; k++) {
+        uleb(r, at, "encoded_field");
+        uleb(r, at, "encoded_field");
+      }
+      for (let k = 0; k < counts[2] + counts[3]; k++) {
+        uleb(r, at, "encoded_method");
+        uleb(r, at, "encoded_method");
+        const codeOff = uleb(r, at, "encoded_method code_off");
+        if (!codeOff) continue;
+        // code_item: insns_size (u32) at +12, insns (u16 each) from +16.
+        const insns = r.u32(codeOff + 12, "code_item insns_size");
+        codeUnits += insns;
+        checkLimit("MAX_DEX_CODE_UNITS", codeUnits, "dex code holds instructions, in 16-bit units, to a count of");
+        r.need(codeOff + 16, 2 * insns, "code_item insns");
+        scanCode(r, codeOff + 16, insns, refs, { strings: strings.length, methods: methods.length, fields: fields.length });
+      }
+    }
+    const sorted = (s: Set<number>) => [...s].sort((a, b) => a - b);
+    classes.push({ descriptor, ...(superIdx !== NO_INDEX ? { superclass: type(superIdx, "class_def superclass") } : {}), methodRefs: sorted(refs.m), fieldRefs: sorted(refs.f), stringRefs: sorted(refs.s) });
+  }
+  return { version, strings, types, methods, fields, classes };
+}
+
+/** Walks one method's instructions, noting the methods invoked, the fields read or written, and the strings loaded. */
+function scanCode(r: ByteReader, start: number, units: number, refs: { m: Set<number>; f: Set<number>; s: Set<number> }, sizes: { strings: number; methods: number; fields: number }): void {
+  let pc = 0;
+  const unit = (k: number) => r.u16(start + 2 * (pc + k), "instruction");
+  while (pc < units) {
+    const u = unit(0);
+    const op = u & 0xff;
+    if (op === 0x00 && u !== 0x0000) {
+      // Payload pseudo-instructions after a nop opcode: packed-switch (0x0100), sparse-switch (0x0200),
+      // fill-array-data (0x0300); anything else is a plain nop.
+      const ident = u >> 8;
+      if (ident === 1) pc += 4 + 2 * unit(1);
+      else if (ident === 2) pc += 2 + 4 * unit(1);
+      else if (ident === 3) pc += 4 + Math.ceil((unit(1) * (unit(2) | (unit(3) << 16))) / 2);
+      else pc += 1;
+      continue;
+    }
+    const w = WIDTH[op];
+    if (w === 0) throw new DexError(`instruction ${op.toString(16).padStart(2, "0")} at ${pc} is not a Dalvik opcode`);
+    if (pc + w > units) throw new DexError(`instruction at ${pc} runs past the method's ${units} code units`);
+    if (op === 0x1a) note(refs.s, unit(1), sizes.strings, "const-string");
+    else if (op === 0x1b) note(refs.s, unit(1) | (unit(2) << 16), sizes.strings, "const-string/jumbo");
+    else if ((op >= 0x6e && op <= 0x72) || (op >= 0x74 && op <= 0x78) || op === 0xfa || op === 0xfb) note(refs.m, unit(1), sizes.methods, "invoke");
+    else if (op >= 0x52 && op <= 0x6d) note(refs.f, unit(1), sizes.fields, "field access");
+    pc += w;
+  }
+}
+
+function note(set: Set<number>, index: number, size: number, what: string): void {
+  if (index >>> 0 >= size) throw new DexError(`${what} names index ${index >>> 0}, past a table of ${size}`);
+  set.add(index >>> 0);
+}
+
+/** `Landroid/telephony/SmsManager;` → `android.telephony.SmsManager`; arrays and primitives in Java form. */
+export function javaName(descriptor: string): string {
+  let dims = 0;
+  while (descriptor[dims] === "[") dims++;
+  const base = descriptor.slice(dims);
+  const prim: Record<string, string> = { V: "void", Z: "boolean", B: "byte", S: "short", C: "char", I: "int", J: "long", F: "float", D: "double" };
+  const name = base.startsWith("L") && base.endsWith(";") ? base.slice(1, -1).replace(/\//g, ".") : (prim[base] ?? base);
+  return name + "[]".repeat(dims);
+}
