@@ -85,6 +85,23 @@ cp "$WORK/twp/AndroidManifest.xml" fixtures/bundle/tidewatch-proto-AndroidManife
 aapt dump permissions "$WORK/tidewatch-ar.apk" > "$DUMPS/tidewatch-ar.permissions.txt"
 aapt dump xmltree fixtures/bundle/tidewatch-from-proto.apk AndroidManifest.xml > "$DUMPS/tidewatch-from-proto.xmltree.txt"
 
+# Dex code of the demo torch (fixtures/smali, assembled by Debian's smali) and dexdump's listing of it,
+# which test/extract/dex/dex.test.ts compares the dex reader with.
+if command -v smali >/dev/null && command -v dexdump >/dev/null; then
+  mkdir -p fixtures/dex
+  for part in classes classes2; do
+    smali assemble -o "fixtures/dex/beamtorch-$part.dex" "fixtures/smali/beamtorch/$part/"
+    dexdump -d "fixtures/dex/beamtorch-$part.dex" > "$DUMPS/beamtorch-$part.dexdump.txt"
+  done
+  # The torch with its code: a multidex APK (classes.dex + classes2.dex added to aapt2's output with aapt add).
+  rm -rf "$WORK/code" && mkdir -p "$WORK/code"
+  cp "$APK/beamtorch.apk" "$WORK/code/beamtorch-code.apk"
+  cp fixtures/dex/beamtorch-classes.dex "$WORK/code/classes.dex"
+  cp fixtures/dex/beamtorch-classes2.dex "$WORK/code/classes2.dex"
+  (cd "$WORK/code" && aapt add -v beamtorch-code.apk classes.dex classes2.dex >/dev/null)
+  cp "$WORK/code/beamtorch-code.apk" "$APK/beamtorch-code.apk"
+fi
+
 for f in "$APK"/*.apk; do
   v=$(basename "$f" .apk)
   aapt dump permissions "$f" > "$DUMPS/$v.permissions.txt"
@@ -95,15 +112,6 @@ done
 # A res/xml file compiled with a UTF-8 string pool, as the toolchain writes those.
 aapt dump xmltree "$APK/tidewatch.apk" res/xml/network_security_config.xml > "$DUMPS/tidewatch.network_security_config.xmltree.txt"
 
-# Dex code of the demo torch (fixtures/smali, assembled by Debian's smali) and dexdump's listing of it,
-# which test/extract/dex/dex.test.ts compares the dex reader with.
-if command -v smali >/dev/null && command -v dexdump >/dev/null; then
-  mkdir -p fixtures/dex
-  for part in classes classes2; do
-    smali assemble -o "fixtures/dex/beamtorch-$part.dex" "fixtures/smali/beamtorch/$part/"
-    dexdump -d "fixtures/dex/beamtorch-$part.dex" > "$DUMPS/beamtorch-$part.dexdump.txt"
-  done
-fi
 
 # The platform's own binary manifest (API 29), and aapt's dump of it.
 unzip -o -q -d "$WORK/fw" "$FRAMEWORK" AndroidManifest.xml

@@ -34,7 +34,7 @@ writeIfChanged(
 );
 
 // Smaller platform tables, each row with its source: rows of fields under their header.
-for (const [file, name] of [["permission-added-in", "ADDED_IN"], ["permission-lineage", "LINEAGE"], ["sensitivity", "SENSITIVITY"]]) {
+for (const [file, name] of [["permission-added-in", "ADDED_IN"], ["permission-lineage", "LINEAGE"], ["sensitivity", "SENSITIVITY"], ["code-evidence-extra", "CODE_EXTRA"]]) {
   const lines = readFileSync(`${root}src/platform/data/${file}.tsv`, "utf8").split(/\r?\n/).filter((l) => l !== "");
   const head = lines[0].split("\t");
   const body = lines.slice(1).map((l) => l.split("\t"));
@@ -42,6 +42,14 @@ for (const [file, name] of [["permission-added-in", "ADDED_IN"], ["permission-li
   writeIfChanged(
     `src/platform/generated/${file}.ts`,
     `${banner(`src/platform/data/${file}.tsv`)}export const ${name}_HEADER: readonly string[] = ${JSON.stringify(head)};\nexport const ${name}_ROWS: readonly (readonly string[])[] = [\n${body.map((r) => `  ${JSON.stringify(r)},`).join("\n")}\n];\n`,
+  );
+}
+
+// The published API -> permission maps (Backes et al., USENIX Security 2016; Apache-2.0), kept as text.
+for (const [file, name] of [["sdk-map-25", "SDK_MAP_25"], ["cp-map-25", "CP_MAP_25"]]) {
+  writeIfChanged(
+    `src/platform/generated/${file}.ts`,
+    `${banner(`src/platform/data/api-permission-map/${file}.txt`)}export const ${name} = ${JSON.stringify(readFileSync(`${root}src/platform/data/api-permission-map/${file}.txt`, "utf8"))};\n`,
   );
 }
 

@@ -86,6 +86,8 @@ const COVERED_ELSEWHERE: Record<string, string> = {
   "platform/sdk-facts.ts": "test/score/checks/no-effect-at-target.test.ts",
   "platform/tables.ts": "test/platform/eras.test.ts",
   "extract/index.ts": "barrel",
+  "extract/code.ts": "test/score/code-evidence.test.ts",
+  "platform/api-map.ts": "test/score/code-evidence.test.ts",
   "extract/read.ts": "test/extract/fixtures.test.ts",
   "extract/xml-tree.ts": "test/extract/plain-xml.test.ts",
   "extract/binary/reader.ts": "test/extract/binary/binary-xml.test.ts",

@@ -5,9 +5,10 @@ import { pickStyle } from "../report/style.js";
 import { EXIT } from "./exit-codes.js";
 import type { Io } from "./io.js";
 
-export function factsCommand(files: string[], o: { format: "text" | "json" }, io: Io, debug: boolean): number {
+export function factsCommand(files: string[], o: { format: "text" | "json"; code?: boolean }, io: Io, debug: boolean): number {
   let failed = false;
   const results = facts(files, {
+    code: o.code !== false,
     onError: (_file, e) => {
       io.stderr.write(`overask: ${e.describe()}\n`);
       if (debug && e.stack) io.stderr.write(`${e.stack}\n`);

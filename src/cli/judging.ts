@@ -1,10 +1,9 @@
 /** The options the judging commands share, turned into what the score layer takes. */
 import type { Baseline } from "../baseline/rates.js";
 import { UsageError } from "../errors.js";
-import { readCategoryIndex } from "../ops/check.js";
+import { readCategoryIndex, type FileJudgeOptions } from "../ops/check.js";
 import { readPolicyFile } from "../ops/policy.js";
 import { categoryList, nearestCategory, resolveCategory } from "../score/category.js";
-import type { JudgeOptions } from "../score/judge.js";
 import { checkById, CHECKS } from "../score/registry.js";
 import type { Level } from "../score/types.js";
 
@@ -15,6 +14,8 @@ export interface JudgingCliOptions {
   level?: Map<string, Level | "off">;
   prevalence?: number;
   policy?: string[];
+  /** false with --no-code (commander's negated option). */
+  code?: boolean;
 }
 
 /**
@@ -22,8 +23,8 @@ export interface JudgingCliOptions {
  * category and listing them all (a category given per app, by an index or --categories, is reported per
  * app instead: the others are still judged).
  */
-export function judgeOptions(o: JudgingCliOptions, baseline?: Baseline): JudgeOptions {
-  const options: JudgeOptions = {};
+export function judgeOptions(o: JudgingCliOptions, baseline?: Baseline): FileJudgeOptions {
+  const options: FileJudgeOptions = { readCode: o.code !== false };
   if (o.category) {
     if (baseline && resolveCategory(baseline, o.category).fallback === "unknown-category") {
       const near = nearestCategory(baseline, o.category);

@@ -32,7 +32,8 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
     .description("read APKs, app bundles or manifests and print what they declare")
     .argument("<file...>", "APKs, app bundles (.aab), multi-APK archives, binary, protobuf or plain AndroidManifest.xml files")
     .addOption(new Option("-f, --format <format>", "output format").choices(["text", "json"]).default("text"))
-    .action(async (files: string[], opts: { format: "text" | "json" }) => {
+    .option("--no-code", "skip reading the app's dex code for code evidence")
+    .action(async (files: string[], opts: { format: "text" | "json"; code: boolean }) => {
       const { factsCommand } = await import("./facts-command.js");
       exitCode = factsCommand(files, opts, io, debug);
     });
@@ -86,6 +87,7 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
       .option("-b, --baseline <file>", "baseline file (default: the bundled baselines/default.json)")
       .option("--prevalence <share>", "share of flagged apps in your population: shift the risk to it from the training base rate", openUnit)
       .option("--policy <file>", "evaluate this policy's rules too (repeatable; see overask rules)", collect)
+      .option("--no-code", "skip reading the app's dex code for code evidence (APKs and bundles)")
       .addOption(new Option("-f, --format <format>", "output format").choices(formats).default("text"));
 
   judging(program.command("check"), ["text", "json", "sarif", "html"])

@@ -5,12 +5,14 @@
 import { InputError } from "../errors.js";
 import type { CheckRun } from "../report/check.js";
 import { parseCategoryIndex } from "../score/category.js";
-import type { Judge, JudgeOptions } from "../score/judge.js";
+import type { CheckResult, Judge, JudgeOptions } from "../score/judge.js";
 import { scoreRecord, type RecordScore } from "../score/records.js";
 import { levelRank, type Level } from "../score/types.js";
 import { openCorpusFile, type CorpusFileOptions } from "./corpus.js";
 import { readTextFile } from "./files.js";
-import { readManifestFile } from "./read-manifest.js";
+import { readCodeFile, readManifestFile } from "./read-manifest.js";
+import { codeEvidence } from "../score/code-evidence.js";
+import type { Manifest } from "../extract/manifest/model.js";
 import { CorpusError } from "../errors.js";
 
 /** Reads a `package,category` CSV (header optional). */
@@ -40,13 +42,27 @@ export interface CheckOutcome {
   gated: boolean;
 }
 
+/** Judging options for files on disk: also whether to read the app's dex code for code evidence. */
+export type FileJudgeOptions = JudgeOptions & {
+  /** Read the app's dex code (archives only) and judge with its evidence; default true (`--no-code`: false). */
+  readCode?: boolean;
+};
+
+/** Reads a file's manifest (unless given) and, unless told not to, its code; then judges it. */
+export function judgeFile(judge: Judge, file: string, options: FileJudgeOptions, manifest: Manifest = readManifestFile(file)): CheckResult {
+  const { readCode = true, ...rest } = options;
+  const found = readCode ? readCodeFile(file) : undefined;
+  const dexes = found?.length ? found : undefined;
+  return judge.judge(manifest, dexes ? { ...rest, code: codeEvidence(manifest, dexes) } : rest);
+}
+
 /** Judges each file; an unreadable one is a run with its error, and the rest are still judged. */
-export function checkFiles(judge: Judge, files: readonly string[], options: JudgeOptions, gates: Gates = {}, onError?: (file: string, e: InputError) => void): CheckOutcome {
+export function checkFiles(judge: Judge, files: readonly string[], options: FileJudgeOptions, gates: Gates = {}, onError?: (file: string, e: InputError) => void): CheckOutcome {
   const runs: CheckRun[] = [];
   let failed = false;
   for (const file of files) {
     try {
-      runs.push({ file, result: judge.judge(readManifestFile(file), options) });
+      runs.push({ file, result: judgeFile(judge, file, options) });
     } catch (e) {
       if (!(e instanceof InputError)) throw e;
       runs.push({ file, error: { kind: e.name, message: e.detail() } });

@@ -2,12 +2,23 @@
 import { InputError } from "../errors.js";
 import type { ReadOptions } from "../extract/read.js";
 import type { FactsResult } from "../report/facts.js";
-import { readManifestFile } from "./read-manifest.js";
+import { codeEvidence } from "../score/code-evidence.js";
+import { readCodeFile, readManifestFile } from "./read-manifest.js";
 
-export function facts(files: readonly string[], options: ReadOptions & { onError?: (file: string, error: InputError) => void } = {}): FactsResult[] {
-  return files.map((file) => {
+export interface FactsOptions extends ReadOptions {
+  /** Read the app's dex code for code evidence (default true; archives only). */
+  code?: boolean;
+  onError?: (file: string, error: InputError) => void;
+}
+
+export function facts(files: readonly string[], options: FactsOptions = {}): FactsResult[] {
+  return files.map((file): FactsResult => {
     try {
-      return { file, manifest: readManifestFile(file, options) };
+      const manifest = readManifestFile(file, options);
+      const found = options.code === false ? undefined : readCodeFile(file);
+      // An archive without dex (a resource-only build) has no code to speak of: no code evidence.
+      const dexes = found?.length ? found : undefined;
+      return { file, manifest, ...(dexes ? { code: codeEvidence(manifest, dexes) } : {}) };
     } catch (e) {
       if (!(e instanceof InputError)) throw e;
       options.onError?.(file, e);

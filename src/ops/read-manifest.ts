@@ -6,7 +6,8 @@
 import { closeSync, fstatSync, openSync, readSync, statSync } from "node:fs";
 import { InputError, withFile } from "../errors.js";
 import { readManifestSource, type ReadOptions } from "../extract/read.js";
-import { openArchive, type ArchiveReader, type RandomAccessSource } from "../extract/containers/zip.js";
+import { looksLikeZip, openArchive, type ArchiveReader, type RandomAccessSource } from "../extract/containers/zip.js";
+import { readDexEntries, wantedCodeEntry, type DexInput } from "../extract/code.js";
 import type { Manifest } from "../extract/manifest/model.js";
 import { fsError } from "./files.js";
 
@@ -57,5 +58,32 @@ export function openArchiveFile(path: string, only?: readonly string[] | ((name:
     return openArchive(fdSource(fd, fstatSync(fd).size), only);
   } catch (e) {
     throw withFile(fsError(e), path);
+  }
+}
+
+/**
+ * Reads the app's dex code for code evidence. Only archives carry code: for a bare manifest this gives
+ * `undefined`. A damaged dex is a problem in the list, never an error; an unreadable archive is one too
+ * (the manifest reader has already said what is wrong with it).
+ */
+export function readCodeFile(path: string): DexInput[] | undefined {
+  let archive: ArchiveReader | undefined;
+  try {
+    const head = new Uint8Array(4);
+    const fd = openSync(path, "r");
+    try {
+      readSync(fd, head, 0, 4, 0);
+    } finally {
+      closeSync(fd);
+    }
+    if (!looksLikeZip(head)) return undefined;
+    archive = openArchiveFile(path, wantedCodeEntry);
+    return readDexEntries(archive);
+  } catch (e) {
+    const err = fsError(e);
+    if (!(err instanceof InputError)) throw err;
+    return [{ entry: "archive", problem: err.detail() }];
+  } finally {
+    archive?.close();
   }
 }

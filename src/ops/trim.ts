@@ -4,17 +4,18 @@
  */
 import { InputError, UsageError } from "../errors.js";
 import { requestedPermissionNames, type Manifest } from "../extract/manifest/model.js";
-import type { Judge, JudgeOptions } from "../score/judge.js";
+import type { Judge } from "../score/judge.js";
 import { parseMergeReport } from "../score/merge-report.js";
 import { patchManifest } from "../score/trim/patch.js";
 import { planTrim, type TrimPlan } from "../score/trim/plan.js";
 import { normalizePermissionName } from "../platform/permissions.js";
 import { resolve } from "node:path";
+import { judgeFile, type FileJudgeOptions } from "./check.js";
 import { readTextFile, writeFileAtomic } from "./files.js";
 import { readManifestFile } from "./read-manifest.js";
 
 export interface TrimOptions {
-  judge: JudgeOptions;
+  judge: FileJudgeOptions;
   /** The build's manifest-merger report, to name the library that adds each permission. */
   mergeReport?: string;
   /** The app's plain source manifest, when `file` is an APK or a merged manifest. */
@@ -38,7 +39,7 @@ export interface TrimOutcome {
 export function trim(judge: Judge, file: string, o: TrimOptions): TrimOutcome {
   if (o.inPlace && o.write) throw new UsageError("give either --write FILE or --in-place, not both");
   const manifest = readManifestFile(file);
-  const result = judge.judge(manifest, o.judge);
+  const result = judgeFile(judge, file, o.judge, manifest);
   const origins = o.mergeReport ? parseMergeReport(readTextFile(o.mergeReport)) : undefined;
   const scorer = judge.scorer;
   const category = result.category.category;

@@ -2,6 +2,7 @@
  * Formatters for `overask check`: text for a person, JSON for machines (docs/check-json.md).
  * Pure functions from results to strings.
  */
+import type { CodeEvidence } from "../score/code-evidence.js";
 import type { CheckResult, NotJudged } from "../score/judge.js";
 import type { Policy } from "../score/policy/policy.js";
 import type { CategoryChoice } from "../score/category.js";
@@ -93,6 +94,15 @@ export function riskLines(r: RiskEstimate, s: Style, width = 80): string[] {
   return out;
 }
 
+/** "2 dex files read: 2 of 5 requested permissions used, 2 not seen, 1 not mappable". */
+export function codeSummary(code: CodeEvidence): string {
+  if (!code.read.length && !code.problems.length) return "no dex code in the archive";
+  const count = (st: string) => code.permissions.filter((p) => p.status === st).length;
+  const files = `${code.read.length} dex ${code.read.length === 1 ? "file" : "files"} read`;
+  const problems = code.problems.length ? `; ${code.problems.join("; ")}` : "";
+  return `${files}: ${count("used")} of ${code.permissions.length} requested permissions used, ${count("not-seen")} not seen, ${count("not-mappable")} not mappable${problems}`;
+}
+
 export function checkToText(runs: CheckRun[], info: CheckRunInfo, s: Style = PLAIN): string {
   const parts: string[] = [];
   for (const run of runs) {
@@ -106,6 +116,7 @@ export function checkToText(runs: CheckRun[], info: CheckRunInfo, s: Style = PLA
     out.push(...wrap(`  baseline    ${info.baseline}`, 80, 14));
     if (era) out.push(`  era         API ${era.api}: what the baseline's apps could request`);
     if (era?.targetNewer) out.push(...wrap(`  note        the app targets API ${m.targetSdk}, newer than the baseline's era (API ${era.api}): permissions added since are judged by what they replaced, or not at all`, 80, 14));
+    if (run.result.code) out.push(...wrap(`  code        ${codeSummary(run.result.code)}`, 80, 14).map((l, i) => (i === 0 || !run.result!.code!.problems.length ? l : s.warn(l))));
     out.push("");
     if (risk) out.push(...riskLines(risk, s), "");
     else out.push(s.dim("Risk  not estimated: the baseline has no risk model"), "");
@@ -137,6 +148,7 @@ export function checkToJson(runs: CheckRun[], info: CheckRunInfo): string {
       category,
       ...(run.result.era ? { era: run.result.era } : {}),
       findings: findings.map((f) => ({ ...f, message: messageOf(f), ...(f.also ? { also: alsoMessages(f).map((a, i) => ({ ...f.also![i], message: a.message })) } : {}) })),
+      ...(run.result.code ? { code: run.result.code } : {}),
       notJudged: run.result.notJudged.map((n) => ({ ...n, message: notJudgedText(n, run.result!.era?.api) })),
       risk: risk ?? null,
     };

@@ -3,12 +3,15 @@
  */
 import { MANIFEST_SCHEMA_VERSION, type Component, type Manifest, type RequestedPermission } from "../extract/manifest/model.js";
 import { REMOVED_PERMISSION_SHORT } from "../platform/sdk-facts.js";
+import { BLIND_SPOTS, type CodeEvidence, type EvidenceItem, type PermissionEvidence } from "../score/code-evidence.js";
 import { TOOL_VERSION } from "../version.js";
 import { PLAIN, fit, wrap, type Style } from "./style.js";
 
 export interface FactsResult {
   file: string;
   manifest?: Manifest;
+  /** Code evidence per requested permission (archives only; absent with --no-code). */
+  code?: CodeEvidence;
   error?: { kind: string; message: string };
 }
 
@@ -22,7 +25,7 @@ const WIDTH = 80;
 export function factsToText(results: FactsResult[], style: Style = PLAIN): string {
   const parts: string[] = [];
   for (const r of results) {
-    if (r.manifest) parts.push(manifestText(r.file, r.manifest, style));
+    if (r.manifest) parts.push(manifestText(r.file, r.manifest, style, r.code));
     else parts.push(`${style.alert("error")} ${r.file}: ${r.error?.message ?? "unreadable"}\n`);
   }
   return parts.join("\n");
@@ -67,9 +70,18 @@ function groupOf(m: Manifest, p: RequestedPermission): GroupId {
   return "unreachable";
 }
 
-function permissionNotes(p: RequestedPermission, group: GroupId): string {
+/** The code column: "code: used by org.example.adnet", "code: not seen", "code: not mappable". */
+export function codeNote(e: PermissionEvidence | undefined): string | undefined {
+  if (!e) return undefined;
+  if (e.status === "used") return `code: used${e.users.length ? ` ${e.onlyLibraries ? "only by" : "by"} ${e.users.join(", ")}` : ""}`;
+  return e.status === "not-seen" ? "code: not seen" : "code: not mappable";
+}
+
+function permissionNotes(p: RequestedPermission, group: GroupId, code?: CodeEvidence): string {
   const f = p.facts;
   const notes: string[] = [];
+  const c = codeNote(code?.permissions.find((e) => e.permission === p.name));
+  if (c) notes.push(c);
   if (group === "undefined") notes.push(f.unknownPlatformName ? "an android.permission name the platform does not define" : "another app's permission");
   if (group === "unreachable" || group === "special") notes.push([f.base, ...(f.flags ?? [])].filter(Boolean).join(", "));
   if (f.hardRestricted) notes.push("hard-restricted");
@@ -102,7 +114,7 @@ function shortName(name: string): string {
   return name.startsWith(PLATFORM_PREFIX) ? name.slice(PLATFORM_PREFIX.length) : name;
 }
 
-function manifestText(file: string, m: Manifest, s: Style): string {
+function manifestText(file: string, m: Manifest, s: Style, code?: CodeEvidence): string {
   const out: string[] = [];
   const title = m.label && m.labelSource !== "unresolved" ? `${m.package}  “${m.label}”` : m.package;
   out.push(s.bold(title));
@@ -142,7 +154,7 @@ function manifestText(file: string, m: Manifest, s: Style): string {
     out.push(`  ${s.bold(g.title)} ${s.dim(`(${members.length})`)}`);
     for (const p of members) {
       const name = shortName(p.name);
-      const notes = wrap(permissionNotes(p, g.id), WIDTH - notesAt, 0);
+      const notes = wrap(permissionNotes(p, g.id, code), WIDTH - notesAt, 0);
       if (name.length > nameWidth) out.push(`    ${name}`);
       const first = `    ${fit(name.length > nameWidth ? "" : name, nameWidth)}  ${notes[0] ?? ""}`.trimEnd();
       if (first.trim()) out.push(first);
@@ -163,11 +175,45 @@ function manifestText(file: string, m: Manifest, s: Style): string {
     out.push(`  ${fit(c.kind, 14)}  ${c.name}`);
     for (const part of exportText(c)) for (const line of wrap(part, WIDTH - 18, 2)) out.push(s.dim(`${" ".repeat(18)}${line}`));
   }
+  if (code) out.push("", ...codeText(code, s));
   if (m.notes.length) {
     out.push("", s.bold("Notes"));
     for (const n of m.notes) out.push(...wrap(`  - ${n}`, WIDTH, 4));
   }
   return `${out.join("\n")}\n`;
+}
+
+/** The code section: what was read, what the code reaches without asking, and what no map sees. */
+export function codeText(code: CodeEvidence, s: Style): string[] {
+  const classes = code.read.reduce((n, d) => n + d.classes, 0);
+  const out = [s.bold("Code evidence")];
+  if (!code.read.length && !code.problems.length) out.push("  no dex code in the archive");
+  else out.push(...wrap(`  read ${code.read.length} dex ${code.read.length === 1 ? "file" : "files"} (${classes} ${classes === 1 ? "class" : "classes"}): ${code.read.map((d) => d.entry).join(", ") || "none"}`, WIDTH, 4));
+  for (const p of code.problems) out.push(...wrap(`  ${s.warn(p)}`, WIDTH, 4));
+  const used = code.permissions.filter((x) => x.status === "used");
+  if (used.length) out.push(`  Requested and used (${used.length})`);
+  for (const e of used) {
+    out.push(`    ${shortName(e.permission)}`);
+    for (const item of e.evidence.slice(0, 3)) out.push(...wrap(s.dim(`      ${evidenceLine(item)}`), WIDTH, 8));
+    if (e.evidence.length > 3) out.push(s.dim(`      and ${e.evidence.length - 3} more`));
+  }
+  if (code.unrequested.length) {
+    out.push(`  Reached in code, not requested (${code.unrequested.length})`);
+    for (const u of code.unrequested) {
+      out.push(...wrap(`    ${u.permissions.map(shortName).join(" or ")}`, WIDTH, 6));
+      out.push(...wrap(s.dim(`      ${evidenceLine(u.evidence)}`), WIDTH, 8));
+    }
+  }
+  out.push(...wrap(s.dim(`  maps: ${BLIND_SPOTS}`), WIDTH, 4));
+  return out;
+}
+
+function evidenceLine(item: EvidenceItem): string {
+  if (item.kind === "receiver") return `a receiver listens for ${item.what} (manifest)`;
+  const paren = item.what.indexOf("(");
+  const api = paren < 0 ? item.what : `${item.what.slice(0, paren)}(…)`;
+  const what = item.kind === "uri" ? `${api} string` : item.kind === "action" ? `${api} action string` : api;
+  return `${what} in ${item.classes} ${item.classes === 1 ? "class" : "classes"} (${item.packages.join(", ")})`;
 }
 
 function byName(a: { name: string }, b: { name: string }): number {

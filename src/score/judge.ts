@@ -2,6 +2,7 @@
  * Judging one app: its category, every check, and the risk estimate. Pure: the manifest and the baseline
  * in, a result out; the CLI does the reading and the printing.
  */
+import type { CodeEvidence } from "./code-evidence.js";
 import type { BaselineFile } from "../baseline/baseline-file.js";
 import { baselineOf } from "../baseline/baseline-file.js";
 import type { Baseline, PermissionRate } from "../baseline/rates.js";
@@ -32,6 +33,8 @@ export interface CheckResult {
   /** The baseline's era, and whether the app targets a newer platform than the corpus could speak for. */
   era?: { api: number; targetNewer: boolean };
   risk?: RiskEstimate;
+  /** Code evidence the checks were given (`JudgeOptions.code`). */
+  code?: CodeEvidence;
 }
 
 export interface JudgeOptions {
@@ -43,6 +46,8 @@ export interface JudgeOptions {
   prevalence?: number;
   /** Policies whose rules are evaluated beside the checks (`--policy`). */
   policies?: readonly Policy[];
+  /** Code evidence read from the app's dex (ops layer); absent: no code checks, no code notes. */
+  code?: CodeEvidence;
 }
 
 /** A baseline prepared for judging many apps: rates memoized per category and permission. */
@@ -67,7 +72,7 @@ export class Judge {
     const category = chooseCategory(manifest, this.baseline, { category: options.category, index: options.categoryIndex });
     const rateCategory = category.category ?? category.requested;
     const rate = (p: string) => this.rate(rateCategory, p);
-    const ctx = { manifest, baseline: this.baseline, category, rate, frequency: (p: string) => judgeFrequency(manifest, this.baseline, category.category, p, rate) };
+    const ctx = { manifest, baseline: this.baseline, category, rate, frequency: (p: string) => judgeFrequency(manifest, this.baseline, category.category, p, rate), ...(options.code ? { code: options.code } : {}) };
     const raw: Finding[] = [];
     for (const check of CHECKS) {
       const level = options.levels?.get(check.meta.id) ?? check.meta.defaultLevel;
@@ -75,6 +80,14 @@ export class Judge {
       for (const f of check.run(ctx)) raw.push({ checkId: check.meta.id, level, ...f });
     }
     const findings = foldByPermission(raw);
+    // Permission findings say what the code shows for the permission, beside how common it is.
+    if (options.code?.read.length) {
+      const byPermission = new Map(options.code.permissions.map((e) => [e.permission, e]));
+      for (const f of findings) {
+        const e = byPermission.get(f.subject);
+        if (e && f.checkId !== "not-seen-in-code") f.data = { ...f.data, code: e.status, ...(e.users.length ? { codeUsers: e.users, codeOnlyLibraries: e.onlyLibraries } : {}) };
+      }
+    }
     findings.sort((a, b) => levelRank(b.level) - levelRank(a.level) || a.checkId.localeCompare(b.checkId) || a.subject.localeCompare(b.subject));
     const requested = requestedPermissionNames(manifest);
     const notJudged: NotJudged[] = [];
@@ -84,7 +97,7 @@ export class Judge {
       else if (j.kind === "made-explicit") notJudged.push({ permission: p, why: "made-explicit", addedIn: j.addedIn, note: j.lineage.note });
       else if (j.kind === "no-evidence") notJudged.push({ permission: p, why: "no-evidence", addedIn: j.addedIn });
     }
-    const result: CheckResult = { manifest, category, findings, notJudged };
+    const result: CheckResult = { manifest, category, findings, notJudged, ...(options.code ? { code: options.code } : {}) };
     if (this.baseline.era !== undefined) result.era = { api: this.baseline.era, targetNewer: (manifest.targetSdk ?? 0) > this.baseline.era };
     // The app's own permissions say nothing about it against other apps: the risk leaves them out too.
     if (this.scorer) result.risk = this.scorer.estimate(category.category, requested.filter((p) => !isOwnPermission(manifest, p)), options.prevalence);

@@ -3,6 +3,7 @@ import { backgroundLocationAlone } from "./checks/background-location-alone.js";
 import { exportedMissing } from "./checks/exported-missing.js";
 import { exportedUnguarded } from "./checks/exported-unguarded.js";
 import { noEffectAtTarget } from "./checks/no-effect-at-target.js";
+import { notSeenInCode } from "./checks/not-seen-in-code.js";
 import { sensitiveUncommon } from "./checks/sensitive-uncommon.js";
 import { serviceTypePermission } from "./checks/service-type-permission.js";
 import { specialAccessComponent } from "./checks/special-access-component.js";
@@ -18,6 +19,7 @@ export const CHECKS: readonly Check[] = [
   exportedMissing,
   exportedUnguarded,
   noEffectAtTarget,
+  notSeenInCode,
   sensitiveUncommon,
   serviceTypePermission,
   specialAccessComponent,

@@ -5,6 +5,7 @@
 import type { Baseline, PermissionRate } from "../baseline/rates.js";
 import type { Manifest, SourceLocation } from "../extract/manifest/model.js";
 import type { CategoryChoice } from "./category.js";
+import type { CodeEvidence } from "./code-evidence.js";
 import type { FrequencyJudgement } from "./frequency.js";
 
 /** SARIF's levels, most severe first. */
@@ -44,6 +45,8 @@ export interface CheckContext {
   rate(permission: string): PermissionRate;
   /** How a requested permission is judged by frequency (own permissions, era rule: score/frequency.ts). */
   frequency(permission: string): FrequencyJudgement;
+  /** Code evidence, when the app's dex code was read (absent for bare manifests and with --no-code). */
+  code?: CodeEvidence;
 }
 
 /** Data a finding carries; each check documents its own keys. */

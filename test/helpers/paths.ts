@@ -10,4 +10,4 @@ export const DUMP_DIR = `${FIXTURES}dumps/`;
 export const APK_VARIANTS = readdirSync(APK_DIR).filter((f) => f.endsWith(".apk")).map((f) => f.slice(0, -4)).sort();
 
 /** The demo app a variant was built from. */
-export const appOf = (variant: string) => variant.replace(/-(stored|nons)$/, "");
+export const appOf = (variant: string) => variant.replace(/-(stored|nons|code)$/, "");

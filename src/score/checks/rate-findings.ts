@@ -52,10 +52,20 @@ export function rateFindings(ctx: CheckContext, select: (permission: string) => 
  * otherwise. The pooled rate is not repeated beside it: it is smoothed (never exactly 0), so "0 of n apps"
  * beside "0.01% of all apps" would read as a contradiction; JSON keeps it in `pooledRate`.
  */
+/** " Code: used only by org.example.adnet." — what the code evidence (score/judge.ts) adds to a finding. */
+export function codeSuffix(data: Finding["data"]): string {
+  if (data.code === "used") {
+    const users = Array.isArray(data.codeUsers) ? data.codeUsers : [];
+    return ` Code: used${users.length ? ` ${data.codeOnlyLibraries ? "only by" : "by"} ${users.join(", ")}` : ""}.`;
+  }
+  if (data.code === "not-seen") return " Code: not seen.";
+  return data.code === "not-mappable" ? " Code: no map covers it." : "";
+}
+
 export function rateMessage(f: Pick<Finding, "subject" | "data">): string {
   const d = f.data as { k: number; n: number; lower: number; upper: number; pooledRate: number; threshold: number; confidence: number; category?: string; judgedBy?: string; replacedIn?: number; lineageKind?: string; gives?: string };
   const group = d.category ? `${d.category} apps` : "apps in the pooled baseline";
   const what = d.judgedBy ? `judged by ${short(d.judgedBy)}, which it ${d.lineageKind === "renamed" ? "was renamed from" : "replaced"} in API ${d.replacedIn}: ` : "";
   const gives = d.gives ? ` It ${d.gives}.` : "";
-  return `${what}${d.k} of ${d.n} ${group} request${d.judgedBy ? "" : " it"}${d.judgedBy ? ` ${short(d.judgedBy)}` : ""} (${Math.round(100 * d.confidence)}% interval ${pct(d.lower)}–${pct(d.upper)}, below ${pct(d.threshold)}).${gives}`;
+  return `${what}${d.k} of ${d.n} ${group} request${d.judgedBy ? "" : " it"}${d.judgedBy ? ` ${short(d.judgedBy)}` : ""} (${Math.round(100 * d.confidence)}% interval ${pct(d.lower)}–${pct(d.upper)}, below ${pct(d.threshold)}).${gives}${codeSuffix(f.data)}`;
 }

@@ -165,6 +165,7 @@ function safety(c: TrimCandidate): string {
   if (ids.has("background-location-alone")) parts.push("it grants nothing without foreground location");
   if (ids.has("unknown-permission")) parts.push("the platform defines no such permission");
   if ([...ids].some((i) => i.startsWith("policy:"))) parts.push("a policy in force forbids it");
+  if (ids.has("not-seen-in-code")) parts.push("the code reaches nothing the permission maps tie to it (not proof: reflection and native code are not seen)");
   if (ids.has("sensitive-uncommon") || ids.has("uncommon-for-category")) parts.push("no component, service type or declaration in the manifest needs it (check the code before removing)");
   return parts.join("; ");
 }

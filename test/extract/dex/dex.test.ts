@@ -4,7 +4,9 @@
  * read or written and string loaded, as dexdump lists them (fixtures/dumps/*.dexdump.txt, written by
  * scripts/build-fixtures.sh). Malformed input is built inline.
  */
-import { readFileSync } from "node:fs";
+import { spawnSync } from "node:child_process";
+import { mkdtempSync, readFileSync, rmSync } from "node:fs";
+import { tmpdir } from "node:os";
 import { describe, expect, it } from "vitest";
 import { DexError, LimitError } from "../../../src/errors.js";
 import { javaName, readDex, type DexFile } from "../../../src/extract/dex/dex.js";
@@ -57,7 +59,7 @@ describe("readDex against dexdump", () => {
 
   it("sees the framework calls the torch's code makes", () => {
     const dex = readDex(readFileSync(`${FIXTURES}dex/beamtorch-classes.dex`));
-    const torch = dex.classes.find((c) => c.descriptor === "Lorg/example/beam/Torch;")!;
+    const torch = dex.classes.find((c) => c.descriptor === "Lorg/example/beamtorch/Torch;")!;
     expect(torch.methodRefs.map((i) => `${javaName(dex.methods[i].owner)}.${dex.methods[i].name}`)).toContain("android.telephony.SmsManager.sendTextMessage");
     expect(torch.stringRefs.map((i) => dex.strings[i])).toContain("content://sms/inbox");
   });
@@ -92,5 +94,28 @@ describe("readDex on damaged input", () => {
     expect(javaName("Landroid/telephony/SmsManager;")).toBe("android.telephony.SmsManager");
     expect(javaName("[[I")).toBe("int[][]");
     expect(javaName("[Ljava/lang/String;")).toBe("java.lang.String[]");
+  });
+});
+
+describe("the committed dex fixtures are current", () => {
+  // Debian's smali and dexdump (installed by .ci/run): reassembling the smali source gives a dex whose
+  // dexdump listing equals the committed one, so the reader is checked against today's source.
+  const have = (tool: string) => spawnSync(tool, ["--version"], { stdio: "ignore" }).error === undefined;
+  it.skipIf(!have("smali") || !have("dexdump"))("reassembles fixtures/smali with smali and dexdump lists the same", ({ skip }) => {
+    const dir = mkdtempSync(`${tmpdir()}/overask-dex-`);
+    try {
+      for (const part of ["classes", "classes2"]) {
+        const out = `${dir}/${part}.dex`;
+        const made = spawnSync("smali", ["assemble", "-o", out, `${FIXTURES}smali/beamtorch/${part}/`], { encoding: "utf8" });
+        if (made.status !== 0) skip();
+        const listing = spawnSync("dexdump", ["-d", out], { encoding: "utf8" }).stdout;
+        const committed = readFileSync(`${DUMP_DIR}beamtorch-${part}.dexdump.txt`, "utf8");
+        // The listing names the file it read; the rest must match line for line.
+        const body = (s: string) => s.split("\n").filter((l) => !l.startsWith("Processing '") && !l.startsWith("Opened '")).join("\n");
+        expect(body(listing)).toBe(body(committed));
+      }
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });

@@ -1,0 +1,33 @@
+/**
+ * not-seen-in-code: a requested permission that the app's dex code never reaches through anything the
+ * API→permission map ties to it (platform/api-map.ts), and no receiver of the manifest needs it. Felt et
+ * al. ("Android Permissions Demystified", CCS 2011) found about a third of the apps they studied asked
+ * for permissions their code never used. Not proof: reflection, native code, dynamically loaded code and
+ * APIs outside the maps are not seen, so the level is note.
+ */
+import { isOwnPermission } from "../frequency.js";
+import type { Check } from "../types.js";
+
+export const notSeenInCode: Check = {
+  meta: {
+    id: "not-seen-in-code",
+    title: "Requested, not seen in code",
+    description: "The app's code references nothing the API-to-permission maps tie to this requested permission.",
+    docs: "docs/checks/not-seen-in-code.md",
+    defaultLevel: "note",
+    tags: ["trim"],
+  },
+  run(ctx) {
+    const code = ctx.code;
+    if (!code || code.read.length === 0) return [];
+    const out: ReturnType<Check["run"]> = [];
+    for (const e of code.permissions) {
+      if (e.status !== "not-seen" || isOwnPermission(ctx.manifest, e.permission)) continue;
+      const el = ctx.manifest.usesPermissions.find((p) => p.name === e.permission);
+      if (el) out.push({ subject: e.permission, location: el.source, data: { dexFiles: code.read.length, partial: code.problems.length > 0 } });
+    }
+    return out;
+  },
+  message: (f) =>
+    `nothing in the app's code (${f.data.dexFiles} dex ${f.data.dexFiles === 1 ? "file" : "files"}${f.data.partial ? ", some unreadable" : ""}) reaches an API the permission maps tie to it; reflection, native code, dynamically loaded code and APIs outside the maps are not seen`,
+};

@@ -1,0 +1,176 @@
+/**
+ * Code evidence: for each requested permission, whether the app's dex code (or its manifest) reaches
+ * something the API→permission map ties to it. Framework references keep their real names even in an
+ * obfuscated app, so renamed app classes do not matter; what the maps cannot see (reflection, native
+ * code, dynamically loaded code, WebView bridges, APIs outside the maps) is said beside every "not seen".
+ */
+import type { DexInput } from "../extract/code.js";
+import { javaName } from "../extract/dex/dex.js";
+import type { Manifest } from "../extract/manifest/model.js";
+import { requestedPermissionNames } from "../extract/manifest/model.js";
+import { apiPermissionMap, uriEntry, type ApiPermissionMap, type MapEntry } from "../platform/api-map.js";
+
+export type CodeStatus = "used" | "not-seen" | "not-mappable";
+
+export interface EvidenceItem {
+  kind: "method" | "field" | "uri" | "action" | "receiver";
+  /** The API, field, URI authority or action, as the map names it. */
+  what: string;
+  /** How many classes reference it (0 for manifest evidence). */
+  classes: number;
+  /** Package groups of the referencing classes (top three levels, or the app's own package). */
+  packages: string[];
+  source: string;
+}
+
+export interface PermissionEvidence {
+  permission: string;
+  status: CodeStatus;
+  evidence: EvidenceItem[];
+  /** Every package group that reaches it, the app's own package first. */
+  users: string[];
+  /** True when only packages other than the app's own reach it (a bundled library). */
+  onlyLibraries: boolean;
+}
+
+export interface CodeEvidence {
+  /** Dex entries read, with their class counts. */
+  read: { entry: string; classes: number }[];
+  /** One line per dex that could not be read: "could not read classes2.dex: …". */
+  problems: string[];
+  permissions: PermissionEvidence[];
+  /**
+   * APIs the code reaches that need a permission the manifest does not request — none of the entry's
+   * alternatives (dead code, a call that fails at run time, or a receiver that never fires).
+   */
+  unrequested: { permissions: string[]; evidence: EvidenceItem }[];
+  /** What no map can see; shown beside "not seen". */
+  blindSpots: string;
+}
+
+export const BLIND_SPOTS = "reflection, native code, dynamically loaded code, WebView bridges and APIs outside the maps are not seen";
+
+/** The package group of a class: the app's own package when under it, else its top three package levels. */
+export function packageGroup(className: string, appPackage: string): string {
+  const pkg = className.includes(".") ? className.slice(0, className.lastIndexOf(".")) : "(default package)";
+  if (appPackage && (pkg === appPackage || pkg.startsWith(appPackage + "."))) return appPackage;
+  return pkg.split(".").slice(0, 3).join(".");
+}
+
+interface Hit {
+  item: Omit<EvidenceItem, "classes" | "packages">;
+  permissions: readonly string[];
+  classes: Set<string>;
+  packages: Set<string>;
+}
+
+export function codeEvidence(manifest: Manifest, dexes: readonly DexInput[], map: ApiPermissionMap = apiPermissionMap()): CodeEvidence {
+  const hits = new Map<string, Hit>();
+  const hit = (kind: EvidenceItem["kind"], what: string, entry: MapEntry, cls?: string) => {
+    const key = `${kind} ${what}`;
+    let h = hits.get(key);
+    if (!h) hits.set(key, (h = { item: { kind, what, source: entry.source }, permissions: entry.permissions, classes: new Set(), packages: new Set() }));
+    if (cls !== undefined) {
+      h.classes.add(cls);
+      h.packages.add(packageGroup(cls, manifest.package));
+    }
+  };
+  const read: CodeEvidence["read"] = [];
+  const problems: string[] = [];
+  for (const input of dexes) {
+    if (!input.dex) {
+      problems.push(`could not read ${input.entry}: ${input.problem ?? "unknown problem"}`);
+      continue;
+    }
+    const dex = input.dex;
+    read.push({ entry: input.entry, classes: dex.classes.length });
+    // Each referenced method/field/string is looked up once per dex, then credited to its classes.
+    const methodKeys = new Map<number, { what: string; entry: MapEntry } | null>();
+    const methodEntry = (i: number) => {
+      let r = methodKeys.get(i);
+      if (r === undefined) {
+        const m = dex.methods[i];
+        const owner = javaName(m.owner);
+        const exact = `${owner}.${m.name}(${m.params.map(javaName).join(",")})${javaName(m.returns)}`;
+        // The published map names one overload; the own table every overload. Both count.
+        const e = map.methods.get(exact);
+        const any = map.methodsAnyOverload.get(`${owner}.${m.name}`);
+        const entry = e && any ? { permissions: [...new Set([...e.permissions, ...any.permissions])], source: `${e.source}; ${any.source}` } : (e ?? any);
+        r = entry ? { what: e ? exact : `${owner}.${m.name}`, entry } : null;
+        methodKeys.set(i, r);
+      }
+      return r;
+    };
+    for (const c of dex.classes) {
+      const cls = javaName(c.descriptor);
+      for (const i of c.methodRefs) {
+        const r = methodEntry(i);
+        if (r) hit("method", r.what, r.entry, cls);
+      }
+      for (const i of c.fieldRefs) {
+        const f = dex.fields[i];
+        const what = `${javaName(f.owner)}.${f.name}`;
+        const e = map.fields.get(what);
+        if (e) hit("field", what, e, cls);
+      }
+      for (const i of c.stringRefs) {
+        const s = dex.strings[i];
+        const u = uriEntry(map, s);
+        if (u) hit("uri", u.uri, u.entry, cls);
+        const a = map.actions.get(s);
+        if (a) hit("action", s, a, cls);
+      }
+    }
+  }
+  for (const comp of manifest.components) {
+    if (comp.kind !== "receiver") continue;
+    for (const f of comp.intentFilters)
+      for (const action of f.actions) {
+        const e = map.actions.get(action);
+        if (e) hit("receiver", action, e, comp.name);
+      }
+  }
+
+  const byPermission = new Map<string, Hit[]>();
+  for (const h of hits.values()) for (const p of h.permissions) byPermission.set(p, [...(byPermission.get(p) ?? []), h]);
+  const toItems = (list: Hit[] = []): EvidenceItem[] =>
+    list
+      .map((h) => ({ ...h.item, classes: h.item.kind === "receiver" ? 0 : h.classes.size, packages: [...h.packages].sort(ownFirst(manifest.package)) }))
+      .sort((a, b) => b.classes - a.classes || a.what.localeCompare(b.what));
+  // With no dex read (all damaged), nothing can be said per permission: only the problems.
+  const requested = read.length ? requestedPermissionNames(manifest) : [];
+  const permissions = requested.map((permission): PermissionEvidence => {
+    const evidence = toItems(byPermission.get(permission));
+    const users = [...new Set(evidence.flatMap((e) => e.packages))].sort(ownFirst(manifest.package));
+    const status: CodeStatus = evidence.length ? "used" : map.covered.has(permission) ? "not-seen" : "not-mappable";
+    return { permission, status, evidence, users, onlyLibraries: users.length > 0 && !users.includes(manifest.package) };
+  });
+  const asked = new Set(requested);
+  const unrequested = [...hits.values()]
+    .filter((h) => !h.permissions.some((p) => asked.has(p)))
+    .map((h) => ({ permissions: [...h.permissions].sort(), evidence: toItems([h])[0] }))
+    .sort((a, b) => a.permissions[0].localeCompare(b.permissions[0]) || a.evidence.what.localeCompare(b.evidence.what));
+  return { read, problems, permissions, unrequested, blindSpots: BLIND_SPOTS };
+}
+
+function ownFirst(own: string): (a: string, b: string) => number {
+  return (a, b) => (a === own ? -1 : b === own ? 1 : a.localeCompare(b));
+}
+
+/** One line for a permission's evidence: "used: android.telephony.SmsManager.sendTextMessage(…) in 2 classes (org.example.adnet)". */
+export function describeEvidence(e: PermissionEvidence): string {
+  if (e.status === "not-mappable") return "not mappable: no map ties an API to it";
+  if (e.status === "not-seen") return `not seen in code (${BLIND_SPOTS})`;
+  const first = e.evidence[0];
+  const where = first.kind === "receiver" ? `a receiver listens for ${first.what}` : `${shortApi(first)} in ${first.classes} ${first.classes === 1 ? "class" : "classes"}`;
+  const more = e.evidence.length > 1 ? ` and ${e.evidence.length - 1} more` : "";
+  const who = e.users.length ? `; ${e.onlyLibraries ? "only by " : "by "}${e.users.join(", ")}` : "";
+  return `used: ${where}${more}${who}`;
+}
+
+function shortApi(e: EvidenceItem): string {
+  if (e.kind === "uri") return `${e.what} string`;
+  if (e.kind === "action") return `${e.what} action string`;
+  const paren = e.what.indexOf("(");
+  return paren < 0 ? e.what : e.what.slice(0, paren);
+}
