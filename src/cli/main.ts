@@ -138,6 +138,7 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
     .option("--keep <permission>", "leave this permission alone (repeatable)", collect)
     .option("--write <file>", "write a patched copy of the source manifest")
     .option("--in-place", "patch the source manifest itself")
+    .option("--remove-used", "with --write/--in-place: also remove permissions the app's code uses (left by default)")
     .option("--level <check=level>", "override a check's level (repeatable)", collectLevels)
     .action(async (file: string, o: import("./trim-command.js").TrimCliOptions) => {
       const { trimCommand } = await import("./trim-command.js");

@@ -26,6 +26,8 @@ export interface TrimOptions {
   write?: string;
   /** Patch the source manifest itself. */
   inPlace?: boolean;
+  /** Also remove candidates the app's code uses (`--remove-used`); without it they are left and listed. */
+  removeUsed?: boolean;
 }
 
 export interface TrimOutcome {
@@ -34,6 +36,8 @@ export interface TrimOutcome {
   written?: string;
   /** --in-place found nothing to change, and wrote nothing. */
   unchanged?: boolean;
+  /** Candidates a patch left because the code uses them (without `removeUsed`). */
+  heldBack?: string[];
 }
 
 export function trim(judge: Judge, file: string, o: TrimOptions): TrimOutcome {
@@ -60,13 +64,17 @@ export function trim(judge: Judge, file: string, o: TrimOptions): TrimOutcome {
   if (!sourcePath || !target) throw new UsageError(`--write and --in-place patch a plain source manifest; ${file} is ${manifest.input.kind === "apk" ? "an APK" : "a binary manifest"}: name the source with --source`);
   if (o.write && resolve(o.write) === resolve(sourcePath)) throw new UsageError(`--write ${o.write} is the source manifest itself; to patch it in place say --in-place`);
   const original = readTextFile(sourcePath);
-  const patched = patchManifest(original, full, plan.candidates);
+  // A permission the code uses is never removed unless asked for by name of the flag.
+  const held = o.removeUsed ? [] : plan.candidates.filter((c) => c.code?.status === "used").map((c) => c.permission);
+  const applied = plan.candidates.filter((c) => !held.includes(c.permission));
+  const heldBack = held.length ? { heldBack: held } : {};
+  const patched = patchManifest(original, full, applied);
   // Nothing to change: an in-place patch leaves the file alone (its time stamp included).
-  if (o.inPlace && patched === original) return { plan, unchanged: true };
+  if (o.inPlace && patched === original) return { plan, unchanged: true, ...heldBack };
   writeFileAtomic(target, patched);
   // The patched file must still read as a manifest, and without the permissions removed.
   const left = new Set(requestedPermissionNames(readManifestFile(target)));
-  const stillThere = plan.candidates.filter((c) => c.action.kind === "delete" && c.element && left.has(c.permission));
+  const stillThere = applied.filter((c) => c.action.kind === "delete" && c.element && left.has(c.permission));
   if (stillThere.length) throw new InputError(`patched manifest still requests ${stillThere.map((c) => c.permission).join(", ")}`, { file: target });
-  return { plan, written: target };
+  return { plan, written: target, ...heldBack };
 }

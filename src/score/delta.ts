@@ -1,6 +1,7 @@
 /**
  * `delta`: what changed between two versions of an app that a reviewer of an update needs to see.
  */
+import type { CodeEvidence, EvidenceItem } from "./code-evidence.js";
 import { requestedPermissionNames } from "../extract/manifest/model.js";
 import type { CheckResult } from "./judge.js";
 import { checkIdsTagged } from "./registry.js";
@@ -52,6 +53,40 @@ export interface Delta {
   newlyBroken: Finding[];
   /** Components other apps can reach now that they could not before. */
   newlyExported: { kind: string; name: string }[];
+  /** What the code shows that changed, when both versions' code was read (docs/code-evidence.md). */
+  code?: CodeDelta;
+}
+
+export interface CodeDelta {
+  /** Evidence (an API, URI, field, action or receiver) present now and not before, with the permissions it needs. */
+  appeared: { kind: string; what: string; permissions: string[]; packages: string[] }[];
+  vanished: { kind: string; what: string; permissions: string[]; packages: string[] }[];
+  /** Permissions requested in both versions whose code status changed (`not-seen` → `used` …). */
+  statusChanged: { permission: string; before: string; after: string }[];
+}
+
+/** Every piece of evidence of a version, keyed by kind and what, with the permissions it needs. */
+function evidenceOf(code: CodeEvidence): Map<string, CodeDelta["appeared"][number]> {
+  const out = new Map<string, CodeDelta["appeared"][number]>();
+  const add = (e: EvidenceItem, permissions: readonly string[]) => {
+    const key = `${e.kind} ${e.what}`;
+    const had = out.get(key);
+    out.set(key, { kind: e.kind, what: e.what, permissions: [...new Set([...(had?.permissions ?? []), ...permissions])].sort(), packages: e.packages });
+  };
+  for (const p of code.permissions) for (const e of p.evidence) add(e, [p.permission]);
+  for (const u of code.unrequested) add(u.evidence, u.permissions);
+  return out;
+}
+
+export function compareCode(before: CodeEvidence, after: CodeEvidence): CodeDelta {
+  const b = evidenceOf(before);
+  const a = evidenceOf(after);
+  const old = new Map(before.permissions.map((p) => [p.permission, p.status]));
+  return {
+    appeared: [...a].filter(([k]) => !b.has(k)).map(([, v]) => v),
+    vanished: [...b].filter(([k]) => !a.has(k)).map(([, v]) => v),
+    statusChanged: after.permissions.filter((p) => old.has(p.permission) && old.get(p.permission) !== p.status).map((p) => ({ permission: p.permission, before: old.get(p.permission)!, after: p.status })),
+  };
 }
 
 function version(r: CheckResult): AppVersion {
@@ -92,5 +127,6 @@ export function compareVersions(before: CheckResult, after: CheckResult): Delta 
     },
     newlyBroken: after.findings.filter((f) => f.checkId.startsWith("policy:") && !before.findings.some((o) => o.checkId === f.checkId && o.subject === f.subject)),
     newlyExported: after.manifest.components.filter((c) => c.effectiveExported && !wasExported.has(`${c.kind} ${c.name}`)).map((c) => ({ kind: c.kind, name: c.name })),
+    ...(before.code?.read.length && after.code?.read.length ? { code: compareCode(before.code, after.code) } : {}),
   };
 }

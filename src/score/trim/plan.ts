@@ -32,6 +32,8 @@ export interface TrimCandidate {
   libraries?: string[];
   /** Why removing (or limiting) it is safe, in words. */
   safe: string;
+  /** What the app's code shows for it, when the code was read (docs/code-evidence.md). */
+  code?: { status: "used" | "not-seen" | "not-mappable"; users: string[] };
 }
 
 export interface TrimPlan {
@@ -94,14 +96,23 @@ export function planTrim(
     }
   }
   const candidates = [...byPermission.values()];
-  for (const c of candidates) c.safe = safety(c);
+  const evidence = new Map((result.code?.permissions ?? []).map((e) => [e.permission, e]));
+  for (const c of candidates) {
+    const e = evidence.get(c.permission);
+    if (e) c.code = { status: e.status, users: e.users };
+    // A permission the code uses is not safe to remove, whatever else is said of it.
+    c.safe = e?.status === "used" ? "" : safety(c);
+  }
   const requested = requestedPermissionNames(m);
   if (options.riskWithout) {
     for (const c of candidates) c.riskWithout = options.riskWithout(requested.filter((p) => p !== c.permission));
   }
   for (const c of candidates) c.reasons.sort((a, b) => levelRank(b.level) - levelRank(a.level));
+  // A permission the code uses ranks after every one it does not: removing it breaks that code.
+  const usedTier = (c: TrimCandidate) => (c.code?.status === "used" ? 1 : 0);
   candidates.sort(
     (a, b) =>
+      usedTier(a) - usedTier(b) ||
       (a.riskWithout ?? 0) - (b.riskWithout ?? 0) ||
       levelRank(b.reasons[0].level) - levelRank(a.reasons[0].level) ||
       a.permission.localeCompare(b.permission),
@@ -166,6 +177,6 @@ function safety(c: TrimCandidate): string {
   if (ids.has("unknown-permission")) parts.push("the platform defines no such permission");
   if ([...ids].some((i) => i.startsWith("policy:"))) parts.push("a policy in force forbids it");
   if (ids.has("not-seen-in-code")) parts.push("the code reaches nothing the permission maps tie to it (not proof: reflection and native code are not seen)");
-  if (ids.has("sensitive-uncommon") || ids.has("uncommon-for-category")) parts.push("no component, service type or declaration in the manifest needs it (check the code before removing)");
+  if (ids.has("sensitive-uncommon") || ids.has("uncommon-for-category")) parts.push(`no component, service type or declaration in the manifest needs it${c.code ? "" : " (check the code before removing)"}`);
   return parts.join("; ");
 }
