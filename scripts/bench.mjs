@@ -22,7 +22,7 @@ const REPS = Number(opt("reps", "41"));
 const OUT = join(ROOT, "bench-out");
 mkdirSync(OUT, { recursive: true });
 
-const ONLY = opt("only", "extract,learn,check,sweep").split(",");
+const ONLY = opt("only", "extract,learn,check,sweep,code").split(",");
 const median = (xs) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 const ms = (t0) => Number(process.hrtime.bigint() - t0) / 1e6;
 const fmt = (x) => (x < 10 ? x.toFixed(3) : x.toFixed(1));
@@ -32,7 +32,7 @@ function header(title) {
 }
 
 /** Writes a zip: the manifest (deflated) first, then `mb` MB of random bytes in 1 MB stored entries. */
-function writeSyntheticApk(path, mb, manifest) {
+function writeSyntheticApk(path, mb, manifest, extra = []) {
   const fd = open2(path, "w");
   const central = [];
   let offset = 0;
@@ -69,6 +69,7 @@ function writeSyntheticApk(path, mb, manifest) {
     central.push(Buffer.concat([cen, nameBuf]));
   };
   entry("AndroidManifest.xml", manifest, true);
+  for (const [name, data] of extra) entry(name, data, true);
   for (let i = 0; i < mb; i++) entry(`assets/blob${String(i).padStart(4, "0")}.bin`, randomBytes(1024 * 1024), false);
   const cd = Buffer.concat(central);
   const cdAt = offset;
@@ -341,6 +342,108 @@ if (ONLY.includes("sweep")) {
     console.log(`floor: ${floorS.toFixed(2)} s, ${Math.round(fr).toLocaleString("en")} apps/s`);
     console.log(`sweep -j 2: ${sweepS.toFixed(2)} s, ${Math.round(sr).toLocaleString("en")} apps/s = ${(sr / fr).toFixed(2)}x the floor's throughput (goal ≥ 0.5x), peak RSS ${rss.toFixed(0)} MB (goal < 300 MB)`);
   }
+}
+
+// ---------------------------------------------------------------------------------------------
+const hasSmali = spawnSync("smali", ["--version"], { stdio: "ignore" }).error === undefined;
+if (ONLY.includes("code") && !hasSmali) console.log("\n## dex / code evidence: skipped (needs Debian's smali: apt-get install libsmali-java)");
+if (ONLY.includes("code") && hasSmali) {
+  const smaliDir = join(OUT, "smali-big");
+  const dexPath = join(OUT, "big.dex");
+  // 1,300 generated classes assemble to a dex of about 10 MB.
+  const CLASSES = Number(opt("dex-classes", "1300"));
+  if (!existsSync(dexPath)) {
+    // Generated smali: classes with methods that call framework APIs (some in the permission maps) and
+    // load string constants, assembled by Debian's smali into one large dex.
+    mkdirSync(smaliDir, { recursive: true });
+    const calls = [
+      "invoke-virtual {p0}, Landroid/telephony/TelephonyManager;->getLine1Number()Ljava/lang/String;",
+      "invoke-virtual {p0}, Ljava/lang/Object;->toString()Ljava/lang/String;",
+      "invoke-virtual {p0}, Ljava/lang/Object;->hashCode()I",
+      "invoke-static {}, Landroid/telephony/SmsManager;->getDefault()Landroid/telephony/SmsManager;",
+    ];
+    for (let c = 0; c < CLASSES; c++) {
+      const lines = [`.class public Lorg/example/bulk/p${c % 40}/C${c};`, ".super Ljava/lang/Object;", ""];
+      for (let m = 0; m < 24; m++) {
+        lines.push(`.method public m${m}()V`, "    .registers 3");
+        for (let k = 0; k < 6; k++) lines.push(`    ${calls[(c + m + k) % calls.length]}`, `    const-string v0, "org.example.bulk.value.${c}.${m}.${k}"`);
+        lines.push("    return-void", ".end method", "");
+      }
+      writeFileSync(join(smaliDir, `C${c}.smali`), lines.join("\n"));
+    }
+    const t = process.hrtime.bigint();
+    execFileSync("smali", ["assemble", "-o", dexPath, smaliDir]);
+    console.log(`(assembled ${CLASSES} generated classes with smali in ${(ms(t) / 1000).toFixed(1)} s)`);
+  }
+  const dex = readFileSync(dexPath);
+  header(`dex: reading a ${(dex.length / 1e6).toFixed(1)} MB dex, against a floor that only walks the same id tables`);
+  // Floor: the header's table offsets, then every string (length and bytes touched) and every type, proto,
+  // field and method id — the least any reader of the id tables must do.
+  const floorWalk = (b) => {
+    const v = new DataView(b.buffer, b.byteOffset, b.byteLength);
+    const u32 = (o) => v.getUint32(o, true);
+    let sum = 0;
+    const [sN, sAt, tN, tAt, pN, pAt, fN, fAt, mN, mAt, cN, cAt] = [56, 60, 64, 68, 72, 76, 80, 84, 88, 92, 96, 100].map(u32);
+    for (let i = 0; i < sN; i++) {
+      let o = u32(sAt + 4 * i);
+      let len = 0, shift = 0, byte;
+      do { byte = b[o++]; len |= (byte & 0x7f) << shift; shift += 7; } while (byte & 0x80);
+      while (b[o] !== 0) sum = (sum + b[o++]) | 0;
+      sum = (sum + len) | 0;
+    }
+    for (let i = 0; i < tN; i++) sum = (sum + u32(tAt + 4 * i)) | 0;
+    for (let i = 0; i < pN; i++) sum = (sum + u32(pAt + 12 * i) + u32(pAt + 12 * i + 4) + u32(pAt + 12 * i + 8)) | 0;
+    for (let i = 0; i < fN; i++) sum = (sum + u32(fAt + 8 * i) + u32(fAt + 8 * i + 4)) | 0;
+    for (let i = 0; i < mN; i++) sum = (sum + u32(mAt + 8 * i) + u32(mAt + 8 * i + 4)) | 0;
+    for (let i = 0; i < cN; i++) sum = (sum + u32(cAt + 32 * i)) | 0;
+    return sum;
+  };
+  for (let i = 0; i < 3; i++) {
+    lib.readDex(dex);
+    floorWalk(dex);
+  }
+  const readT = [];
+  const floorT = [];
+  for (let i = 0; i < 9; i++) {
+    let t = process.hrtime.bigint();
+    floorWalk(dex);
+    floorT.push(ms(t));
+    t = process.hrtime.bigint();
+    lib.readDex(dex);
+    readT.push(ms(t));
+  }
+  const parsed = lib.readDex(dex);
+  console.log(`ids: ${parsed.strings.length.toLocaleString("en")} strings, ${parsed.methods.length.toLocaleString("en")} method refs, ${parsed.classes.length.toLocaleString("en")} classes`);
+  console.log(`floor (walk the id tables):        median ${fmt(median(floorT))} ms`);
+  console.log(`readDex (ids + every method's code): median ${fmt(median(readT))} ms = ${(median(readT) / median(floorT)).toFixed(2)}x the floor (goal within 3x)`);
+
+  header("check with and without code evidence: a 50 MB APK with 3 dex files (whole CLI run)");
+  const apk = join(OUT, "code-50mb.apk");
+  const manifest = lib.openArchiveFile(join(ROOT, "fixtures/apk/beamtorch.apk")).read("AndroidManifest.xml", "MAX_MANIFEST_BYTES");
+  const dexMb = (3 * dex.length) / (1024 * 1024);
+  writeSyntheticApk(apk, Math.max(0, Math.round(50 - dexMb)), Buffer.from(manifest), [["classes.dex", dex], ["classes2.dex", dex], ["classes3.dex", dex]]);
+  const runCheck = (extra) => {
+    const t = process.hrtime.bigint();
+    const r = spawnSync(process.execPath, [join(ROOT, "bin/overask.js"), "check", "-c", "TOOLS", ...extra, apk], { encoding: "utf8" });
+    if (r.status !== 0 && r.status !== 1) throw new Error(r.stderr);
+    return ms(t);
+  };
+  runCheck([]);
+  const withCode = [];
+  const without = [];
+  for (let i = 0; i < 5; i++) {
+    without.push(runCheck(["--no-code"]));
+    withCode.push(runCheck([]));
+  }
+  const startup = [];
+  for (let i = 0; i < 5; i++) {
+    const t = process.hrtime.bigint();
+    spawnSync(process.execPath, ["-e", "0"]);
+    startup.push(ms(t));
+  }
+  console.log(`node -e 0 (process start floor): median ${fmt(median(startup))} ms`);
+  console.log(`check --no-code:                 median ${fmt(median(without))} ms`);
+  console.log(`check (code evidence, 3 dex):    median ${fmt(median(withCode))} ms = ${(median(withCode) / median(without)).toFixed(2)}x check --no-code`);
 }
 
 if (!args.includes("--keep")) rmSync(OUT, { recursive: true, force: true });

@@ -5,7 +5,8 @@
  * code, dynamically loaded code, WebView bridges, APIs outside the maps) is said beside every "not seen".
  */
 import type { DexInput } from "../extract/code.js";
-import { javaName } from "../extract/dex/dex.js";
+import { javaName, type DexFile } from "../extract/dex/dex.js";
+import { InputError } from "../errors.js";
 import type { Manifest } from "../extract/manifest/model.js";
 import { requestedPermissionNames } from "../extract/manifest/model.js";
 import { apiPermissionMap, uriEntry, type ApiPermissionMap, type MapEntry } from "../platform/api-map.js";
@@ -83,7 +84,16 @@ export function codeEvidence(manifest: Manifest, dexes: readonly DexInput[], map
       continue;
     }
     const dex = input.dex;
-    read.push({ entry: input.entry, classes: dex.classes.length });
+    try {
+      scanDex(dex);
+      read.push({ entry: input.entry, classes: dex.classes.length });
+    } catch (e) {
+      // A string decoded only now can still be damaged: the dex's evidence so far is kept, and the damage said.
+      if (!(e instanceof InputError)) throw e;
+      problems.push(`could not read ${input.entry}: ${e.detail()}`);
+    }
+  }
+  function scanDex(dex: DexFile): void {
     // Each referenced method/field/string is looked up once per dex, then credited to its classes.
     const methodKeys = new Map<number, { what: string; entry: MapEntry } | null>();
     const methodEntry = (i: number) => {
@@ -114,11 +124,15 @@ export function codeEvidence(manifest: Manifest, dexes: readonly DexInput[], map
         if (e) hit("field", what, e, cls);
       }
       for (const i of c.stringRefs) {
-        const s = dex.strings[i];
-        const u = uriEntry(map, s);
-        if (u) hit("uri", u.uri, u.entry, cls);
-        const a = map.actions.get(s);
-        if (a) hit("action", s, a, cls);
+        // Only content URIs and broadcast actions matter: other strings are never decoded.
+        if (dex.stringStartsWith(i, "content://")) {
+          const u = uriEntry(map, dex.string(i));
+          if (u) hit("uri", u.uri, u.entry, cls);
+        } else if (dex.stringStartsWith(i, "android.")) {
+          const s = dex.string(i);
+          const a = map.actions.get(s);
+          if (a) hit("action", s, a, cls);
+        }
       }
     }
   }

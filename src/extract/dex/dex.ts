@@ -35,7 +35,14 @@ export interface DexClass {
 
 export interface DexFile {
   version: string;
-  strings: string[];
+  /** How many strings the string table holds. */
+  stringCount: number;
+  /** String `i`, decoded from MUTF-8 on first use (most strings are never needed); bad bytes raise DexError. */
+  string(i: number): string;
+  /** Whether string `i` starts with the ASCII `prefix`, read from its bytes without decoding it. */
+  stringStartsWith(i: number, prefix: string): boolean;
+  /** Every string, decoded (a decode of each on first access: for listings and tests). */
+  readonly strings: string[];
   types: string[];
   methods: DexMethodRef[];
   fields: DexFieldRef[];
@@ -64,6 +71,11 @@ const WIDTH = new Uint8Array(256);
 })();
 
 function uleb(r: ByteReader, at: { p: number }, what: string): number {
+  const first = r.bytes[at.p];
+  if (first < 0x80) {
+    at.p++;
+    return first;
+  }
   let v = 0;
   for (let shift = 0; shift < 35; shift += 7) {
     const b = r.u8(at.p++, what);
@@ -75,6 +87,17 @@ function uleb(r: ByteReader, at: { p: number }, what: string): number {
 
 /** MUTF-8 (modified UTF-8, as dex strings are stored) to a string. */
 function mutf8(bytes: Uint8Array, start: number, units: number, fail: (m: string) => Error): string {
+  // Most dex strings are ASCII (class, method and field names): one check, then one conversion.
+  if (units <= 1024 && start + units <= bytes.length) {
+    let ascii = true;
+    for (let p = start; p < start + units; p++) {
+      if (bytes[p] >= 0x80 || bytes[p] === 0) {
+        ascii = false;
+        break;
+      }
+    }
+    if (ascii) return String.fromCharCode.apply(null, bytes.subarray(start, start + units) as unknown as number[]);
+  }
   let out = "";
   let p = start;
   for (let i = 0; i < units; i++) {
@@ -114,16 +137,37 @@ export function readDex(bytes: Uint8Array): DexFile {
   const methodT = table(0x58, "method_ids", "MAX_DEX_IDS", 8);
   const classT = table(0x60, "class_defs", "MAX_DEX_IDS", 32);
 
-  const strings = new Array<string>(strT.size);
+  // The string table is walked now (every offset and length checked); the text is decoded when asked for.
+  const starts = new Uint32Array(strT.size);
+  const lengths = new Uint32Array(strT.size);
+  const bytesLength = bytes.length;
   for (let i = 0; i < strT.size; i++) {
-    const at = { p: r.u32(strT.off + 4 * i, "string_data_off") };
-    const units = uleb(r, at, "string length");
+    let p = r.u32(strT.off + 4 * i, "string_data_off");
+    let units = 0;
+    let shift = 0;
+    for (;;) {
+      if (p >= bytesLength) throw new DexError(`string length at ${p} runs past the end of the file`);
+      const b = bytes[p++];
+      units += (b & 0x7f) * 2 ** shift;
+      if (b < 0x80) break;
+      shift += 7;
+      if (shift >= 35) throw new DexError(`string length: a ULEB128 value runs past 5 bytes at offset ${p}`);
+    }
     checkLimit("MAX_STRING_LENGTH", units, "dex string declares a length of");
-    strings[i] = mutf8(bytes, at.p, units, fail);
+    if (p + units > bytesLength) throw new DexError(`string data at ${p} runs past the end of the file`);
+    starts[i] = p;
+    lengths[i] = units;
   }
+  const decoded = new Array<string | undefined>(strT.size);
+  const stringAt = (i: number): string => {
+    if (!(i >= 0 && i < strT.size)) throw new DexError(`string ${i} is past the ${strT.size} strings`);
+    let v = decoded[i];
+    if (v === undefined) decoded[i] = v = mutf8(bytes, starts[i], lengths[i], fail);
+    return v;
+  };
   const str = (i: number, what: string) => {
-    if (i >= strings.length) throw new DexError(`${what} names string ${i}, past the ${strings.length} strings`);
-    return strings[i];
+    if (i >= strT.size) throw new DexError(`${what} names string ${i}, past the ${strT.size} strings`);
+    return stringAt(i);
   };
   const types = new Array<string>(typeT.size);
   for (let i = 0; i < typeT.size; i++) types[i] = str(r.u32(typeT.off + 4 * i, "type_id"), "type_id");
@@ -160,12 +204,15 @@ export function readDex(bytes: Uint8Array): DexFile {
 
   const classes: DexClass[] = [];
   let codeUnits = 0;
+  // Which class last noted each id: a reference is listed once per class without a set per class.
+  const seen = { m: new Int32Array(methods.length), f: new Int32Array(fields.length), s: new Int32Array(strT.size) };
+  const newRefs = (stamp: number): Refs => ({ stamp, m: [], f: [], s: [], seen });
   for (let i = 0; i < classT.size; i++) {
     const base = classT.off + 32 * i;
     const descriptor = type(r.u32(base, "class_def class_idx"), "class_def");
     const superIdx = r.u32(base + 8, "class_def superclass_idx");
     const dataOff = r.u32(base + 24, "class_def class_data_off");
-    const refs = { m: new Set<number>(), f: new Set<number>(), s: new Set<number>() };
+    const refs = newRefs(i + 1);
     if (dataOff) {
       const at = { p: dataOff };
       const counts = [uleb(r, at, "class_data"), uleb(r, at, "class_data"), uleb(r, at, "class_data"), uleb(r, at, "class_data")];
@@ -185,46 +232,81 @@ export function readDex(bytes: Uint8Array): DexFile {
         codeUnits += insns;
         checkLimit("MAX_DEX_CODE_UNITS", codeUnits, "dex code holds instructions, in 16-bit units, to a count of");
         r.need(codeOff + 16, 2 * insns, "code_item insns");
-        scanCode(r, codeOff + 16, insns, refs, { strings: strings.length, methods: methods.length, fields: fields.length });
+        scanCode(r, codeOff + 16, insns, refs, { strings: strT.size, methods: methods.length, fields: fields.length });
       }
     }
-    const sorted = (s: Set<number>) => [...s].sort((a, b) => a - b);
+    const sorted = (s: number[]) => s.sort((a, b) => a - b);
     classes.push({ descriptor, ...(superIdx !== NO_INDEX ? { superclass: type(superIdx, "class_def superclass") } : {}), methodRefs: sorted(refs.m), fieldRefs: sorted(refs.f), stringRefs: sorted(refs.s) });
   }
-  return { version, strings, types, methods, fields, classes };
+  let all: string[] | undefined;
+  return {
+    version,
+    stringCount: strT.size,
+    string: stringAt,
+    stringStartsWith(i: number, prefix: string): boolean {
+      if (!(i >= 0 && i < strT.size) || lengths[i] < prefix.length) return false;
+      const at = starts[i];
+      for (let k = 0; k < prefix.length; k++) if (bytes[at + k] !== prefix.charCodeAt(k)) return false;
+      return true;
+    },
+    get strings() {
+      if (!all) all = Array.from({ length: strT.size }, (_, i) => stringAt(i));
+      return all;
+    },
+    types,
+    methods,
+    fields,
+    classes,
+  };
 }
 
 /** Walks one method's instructions, noting the methods invoked, the fields read or written, and the strings loaded. */
-function scanCode(r: ByteReader, start: number, units: number, refs: { m: Set<number>; f: Set<number>; s: Set<number> }, sizes: { strings: number; methods: number; fields: number }): void {
+interface Refs {
+  /** The class's number (from 1): `seen` holds, per id, the last class that noted it. */
+  stamp: number;
+  m: number[];
+  f: number[];
+  s: number[];
+  seen: { m: Int32Array; f: Int32Array; s: Int32Array };
+}
+
+function scanCode(r: ByteReader, start: number, units: number, refs: Refs, sizes: { strings: number; methods: number; fields: number }): void {
+  // The caller checked that all `units` code units lie inside the file: they are read directly.
+  const b = r.bytes;
+  const unit = (pc: number) => b[start + 2 * pc] | (b[start + 2 * pc + 1] << 8);
   let pc = 0;
-  const unit = (k: number) => r.u16(start + 2 * (pc + k), "instruction");
   while (pc < units) {
-    const u = unit(0);
+    const u = unit(pc);
     const op = u & 0xff;
     if (op === 0x00 && u !== 0x0000) {
       // Payload pseudo-instructions after a nop opcode: packed-switch (0x0100), sparse-switch (0x0200),
       // fill-array-data (0x0300); anything else is a plain nop.
       const ident = u >> 8;
-      if (ident === 1) pc += 4 + 2 * unit(1);
-      else if (ident === 2) pc += 2 + 4 * unit(1);
-      else if (ident === 3) pc += 4 + Math.ceil((unit(1) * (unit(2) | (unit(3) << 16))) / 2);
+      if (ident >= 1 && ident <= 3 && pc + 4 > units) throw new DexError(`payload at ${pc} runs past the method's ${units} code units`);
+      if (ident === 1) pc += 4 + 2 * unit(pc + 1);
+      else if (ident === 2) pc += 2 + 4 * unit(pc + 1);
+      else if (ident === 3) pc += 4 + Math.ceil((unit(pc + 1) * (unit(pc + 2) | (unit(pc + 3) << 16))) / 2);
       else pc += 1;
       continue;
     }
     const w = WIDTH[op];
     if (w === 0) throw new DexError(`instruction ${op.toString(16).padStart(2, "0")} at ${pc} is not a Dalvik opcode`);
     if (pc + w > units) throw new DexError(`instruction at ${pc} runs past the method's ${units} code units`);
-    if (op === 0x1a) note(refs.s, unit(1), sizes.strings, "const-string");
-    else if (op === 0x1b) note(refs.s, unit(1) | (unit(2) << 16), sizes.strings, "const-string/jumbo");
-    else if ((op >= 0x6e && op <= 0x72) || (op >= 0x74 && op <= 0x78) || op === 0xfa || op === 0xfb) note(refs.m, unit(1), sizes.methods, "invoke");
-    else if (op >= 0x52 && op <= 0x6d) note(refs.f, unit(1), sizes.fields, "field access");
+    if (op === 0x1a) note(refs.s, refs.seen.s, refs.stamp, unit(pc + 1), sizes.strings, "const-string");
+    else if (op === 0x1b) note(refs.s, refs.seen.s, refs.stamp, unit(pc + 1) | (unit(pc + 2) << 16), sizes.strings, "const-string/jumbo");
+    else if ((op >= 0x6e && op <= 0x72) || (op >= 0x74 && op <= 0x78) || op === 0xfa || op === 0xfb) note(refs.m, refs.seen.m, refs.stamp, unit(pc + 1), sizes.methods, "invoke");
+    else if (op >= 0x52 && op <= 0x6d) note(refs.f, refs.seen.f, refs.stamp, unit(pc + 1), sizes.fields, "field access");
     pc += w;
   }
 }
 
-function note(set: Set<number>, index: number, size: number, what: string): void {
-  if (index >>> 0 >= size) throw new DexError(`${what} names index ${index >>> 0}, past a table of ${size}`);
-  set.add(index >>> 0);
+function note(list: number[], seen: Int32Array, stamp: number, index: number, size: number, what: string): void {
+  const i = index >>> 0;
+  if (i >= size) throw new DexError(`${what} names index ${i}, past a table of ${size}`);
+  if (seen[i] !== stamp) {
+    seen[i] = stamp;
+    list.push(i);
+  }
 }
 
 /** `Landroid/telephony/SmsManager;` → `android.telephony.SmsManager`; arrays and primitives in Java form. */
