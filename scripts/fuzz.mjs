@@ -247,6 +247,7 @@ export function makeInput(seeds, seed, i) {
 // ---------------------------------------------------------------------------------------------
 // The worker: runs inputs through the readers and reports anything that is not a typed error.
 
+let DEX_MANIFEST;
 async function runOne(lib, input, tmp) {
   switch (input.kind) {
     case "file": {
@@ -255,7 +256,9 @@ async function runOne(lib, input, tmp) {
       return;
     }
     case "dex": {
-      lib.readDex(input.bytes);
+      // The reader, then the evidence stage over what it read (strings are decoded on demand there).
+      const dex = lib.readDex(input.bytes);
+      lib.codeEvidence(DEX_MANIFEST ??= lib.readManifestBytes(readFileSync(join(ROOT, "fixtures/apps/beamtorch/AndroidManifest.xml"))), [{ entry: "classes.dex", dex }]);
       return;
     }
     case "arsc": {
