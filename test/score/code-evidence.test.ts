@@ -164,3 +164,14 @@ describe("map coverage", () => {
     expect(uncovered).toEqual(["ACCEPT_HANDOVER", "ACCESS_BACKGROUND_LOCATION", "BODY_SENSORS", "BODY_SENSORS_BACKGROUND", "READ_MEDIA_VISUAL_USER_SELECTED", "UWB_RANGING"]);
   });
 });
+
+describe("code in archives of archives", () => {
+  it("reads the dex of each APK in a multi-APK archive, named by its APK", () => {
+    const outer = new AdmZip();
+    outer.addFile("base.apk", apkBytes);
+    const archive = openArchiveBytes(outer.toBuffer());
+    const read = readDexEntries(archive);
+    expect(read.map((d) => d.entry)).toEqual(["base.apk!classes.dex", "base.apk!classes2.dex"]);
+    expect(read.every((d) => d.dex)).toBe(true);
+  });
+});
