@@ -10,8 +10,7 @@ import { scoreRecord, type RecordScore } from "../score/records.js";
 import { levelRank, type Level } from "../score/types.js";
 import { openCorpusFile, type CorpusFileOptions } from "./corpus.js";
 import { readTextFile } from "./files.js";
-import { readCodeFile, readManifestFile } from "./read-manifest.js";
-import { codeEvidence } from "../score/code-evidence.js";
+import { readCodeEvidence, readManifestFile } from "./read-manifest.js";
 import type { Manifest } from "../extract/manifest/model.js";
 import { CorpusError } from "../errors.js";
 
@@ -51,9 +50,8 @@ export type FileJudgeOptions = JudgeOptions & {
 /** Reads a file's manifest (unless given) and, unless told not to, its code; then judges it. */
 export function judgeFile(judge: Judge, file: string, options: FileJudgeOptions, manifest: Manifest = readManifestFile(file)): CheckResult {
   const { readCode = true, ...rest } = options;
-  const found = readCode ? readCodeFile(file) : undefined;
-  const dexes = found?.length ? found : undefined;
-  return judge.judge(manifest, dexes ? { ...rest, code: codeEvidence(manifest, dexes) } : rest);
+  const code = readCode ? readCodeEvidence(file, manifest) : undefined;
+  return judge.judge(manifest, code ? { ...rest, code } : rest);
 }
 
 /** Judges each file; an unreadable one is a run with its error, and the rest are still judged. */

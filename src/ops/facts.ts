@@ -2,8 +2,7 @@
 import { InputError } from "../errors.js";
 import type { ReadOptions } from "../extract/read.js";
 import type { FactsResult } from "../report/facts.js";
-import { codeEvidence } from "../score/code-evidence.js";
-import { readCodeFile, readManifestFile } from "./read-manifest.js";
+import { readCodeEvidence, readManifestFile } from "./read-manifest.js";
 
 export interface FactsOptions extends ReadOptions {
   /** Read the app's dex code for code evidence (default true; archives only). */
@@ -15,10 +14,8 @@ export function facts(files: readonly string[], options: FactsOptions = {}): Fac
   return files.map((file): FactsResult => {
     try {
       const manifest = readManifestFile(file, options);
-      const found = options.code === false ? undefined : readCodeFile(file);
-      // An archive without dex (a resource-only build) has no code to speak of: no code evidence.
-      const dexes = found?.length ? found : undefined;
-      return { file, manifest, ...(dexes ? { code: codeEvidence(manifest, dexes) } : {}) };
+      const code = options.code === false ? undefined : readCodeEvidence(file, manifest);
+      return { file, manifest, ...(code ? { code } : {}) };
     } catch (e) {
       if (!(e instanceof InputError)) throw e;
       options.onError?.(file, e);

@@ -6,8 +6,9 @@
 import { closeSync, fstatSync, openSync, readSync, statSync } from "node:fs";
 import { InputError, withFile } from "../errors.js";
 import { readManifestSource, type ReadOptions } from "../extract/read.js";
-import { looksLikeZip, openArchive, type ArchiveReader, type RandomAccessSource } from "../extract/containers/zip.js";
+import { openArchive, type ArchiveReader, type RandomAccessSource } from "../extract/containers/zip.js";
 import { readDexEntries, wantedCodeEntry, type DexInput } from "../extract/code.js";
+import { codeEvidence, type CodeEvidence } from "../score/code-evidence.js";
 import type { Manifest } from "../extract/manifest/model.js";
 import { fsError } from "./files.js";
 
@@ -61,29 +62,27 @@ export function openArchiveFile(path: string, only?: readonly string[] | ((name:
   }
 }
 
+/** Input kinds that are archives, and so can carry the app's dex code. */
+const ARCHIVE_KINDS: ReadonlySet<Manifest["input"]["kind"]> = new Set(["apk", "proto-apk", "app-bundle", "multi-apk"]);
+
 /**
- * Reads the app's dex code for code evidence. Only archives carry code: for a bare manifest this gives
- * `undefined`. A damaged dex is a problem in the list, never an error; an unreadable archive is one too
- * (the manifest reader has already said what is wrong with it).
+ * Code evidence for a file whose manifest was read: its dex code against the API→permission map. Only
+ * archives carry code; a bare manifest, or an archive without dex (a resource-only build), has none:
+ * `undefined`. A damaged dex is a problem in the evidence, never an error.
  */
-export function readCodeFile(path: string): DexInput[] | undefined {
+export function readCodeEvidence(path: string, manifest: Manifest): CodeEvidence | undefined {
+  if (!ARCHIVE_KINDS.has(manifest.input.kind)) return undefined;
+  let dexes: DexInput[];
   let archive: ArchiveReader | undefined;
   try {
-    const head = new Uint8Array(4);
-    const fd = openSync(path, "r");
-    try {
-      readSync(fd, head, 0, 4, 0);
-    } finally {
-      closeSync(fd);
-    }
-    if (!looksLikeZip(head)) return undefined;
     archive = openArchiveFile(path, wantedCodeEntry);
-    return readDexEntries(archive);
+    dexes = readDexEntries(archive);
   } catch (e) {
     const err = fsError(e);
     if (!(err instanceof InputError)) throw err;
-    return [{ entry: "archive", problem: err.detail() }];
+    dexes = [{ entry: "archive", problem: err.detail() }];
   } finally {
     archive?.close();
   }
+  return dexes.length ? codeEvidence(manifest, dexes) : undefined;
 }

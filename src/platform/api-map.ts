@@ -28,6 +28,8 @@ export interface ApiPermissionMap {
   actions: ReadonlyMap<string, MapEntry>;
   /** Every permission at least one entry ties to an API, URI or action. */
   covered: ReadonlySet<string>;
+  /** Classes that declare a mapped method: a reference to any other class needs no lookup. */
+  methodOwners: ReadonlySet<string>;
 }
 
 const SDK_SOURCE = "sdk-map-25 (Backes et al., USENIX Security 2016)";
@@ -81,7 +83,13 @@ export function apiPermissionMap(): ApiPermissionMap {
   }
   const covered = new Set<string>();
   for (const m of [methods, methodsAnyOverload, fields, uris, actions]) for (const e of m.values()) for (const p of e.permissions) covered.add(p);
-  built = { methods, methodsAnyOverload, fields, uris, actions, covered };
+  const methodOwners = new Set<string>();
+  for (const key of [...methods.keys(), ...methodsAnyOverload.keys()]) {
+    const paren = key.indexOf("(");
+    const name = paren < 0 ? key : key.slice(0, paren);
+    methodOwners.add(name.slice(0, name.lastIndexOf(".")));
+  }
+  built = { methods, methodsAnyOverload, fields, uris, actions, covered, methodOwners };
   return built;
 }
 

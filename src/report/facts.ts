@@ -3,7 +3,7 @@
  */
 import { MANIFEST_SCHEMA_VERSION, type Component, type Manifest, type RequestedPermission } from "../extract/manifest/model.js";
 import { REMOVED_PERMISSION_SHORT } from "../platform/sdk-facts.js";
-import { BLIND_SPOTS, type CodeEvidence, type EvidenceItem, type PermissionEvidence } from "../score/code-evidence.js";
+import { BLIND_SPOTS, codeStatusText, evidenceLabel, type CodeEvidence, type EvidenceItem, type PermissionEvidence } from "../score/code-evidence.js";
 import { TOOL_VERSION } from "../version.js";
 import { PLAIN, fit, wrap, type Style } from "./style.js";
 
@@ -72,9 +72,7 @@ function groupOf(m: Manifest, p: RequestedPermission): GroupId {
 
 /** The code column: "code: used by org.example.adnet", "code: not seen", "code: not mappable". */
 export function codeNote(e: PermissionEvidence | undefined): string | undefined {
-  if (!e) return undefined;
-  if (e.status === "used") return `code: used${e.users.length ? ` ${e.onlyLibraries ? "only by" : "by"} ${e.users.join(", ")}` : ""}`;
-  return e.status === "not-seen" ? "code: not seen" : "code: not mappable";
+  return e ? `code: ${codeStatusText(e.status, e.users, e.onlyLibraries)}` : undefined;
 }
 
 function permissionNotes(p: RequestedPermission, group: GroupId, code?: CodeEvidence): string {
@@ -209,11 +207,8 @@ export function codeText(code: CodeEvidence, s: Style): string[] {
 }
 
 function evidenceLine(item: EvidenceItem): string {
-  if (item.kind === "receiver") return `a receiver listens for ${item.what} (manifest)`;
-  const paren = item.what.indexOf("(");
-  const api = paren < 0 ? item.what : `${item.what.slice(0, paren)}(…)`;
-  const what = item.kind === "uri" ? `${api} string` : item.kind === "action" ? `${api} action string` : api;
-  return `${what} in ${item.classes} ${item.classes === 1 ? "class" : "classes"} (${item.packages.join(", ")})`;
+  if (item.kind === "receiver") return `${evidenceLabel(item)} (manifest)`;
+  return `${evidenceLabel(item)} in ${item.classes} ${item.classes === 1 ? "class" : "classes"} (${item.packages.join(", ")})`;
 }
 
 function byName(a: { name: string }, b: { name: string }): number {

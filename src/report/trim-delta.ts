@@ -1,4 +1,5 @@
 /** Formatters for `overask trim` and `overask delta`. */
+import { codeStatusText, evidenceLabel } from "../score/code-evidence.js";
 import type { Delta } from "../score/delta.js";
 import { snippetFor, type TrimPlan } from "../score/trim/plan.js";
 import { TOOLS_NS } from "../extract/xml-tree.js";
@@ -25,8 +26,8 @@ export function trimToText(plan: TrimPlan, file: string, caution: string | undef
     out.push(`${String(i + 1).padStart(3)}. ${s.bold(short(c.permission))}${risk}`);
     for (const r of c.reasons) out.push(...wrap(`     ${verdict(r.level, r.checkId, s)}${r.message ? ` ${r.message}` : ""}`, 80, 7).map((l) => s.dim(l)));
     if (c.safe) out.push(...wrap(`     safe because ${c.safe}`, 80, 7).map((l) => s.dim(l)));
-    if (c.code?.status === "used") out.push(...wrap(`     code: used by ${c.code.users.join(", ")} — removing it breaks that code; --write leaves it unless --remove-used`, 80, 7).map((l) => s.warn(l)));
-    else if (c.code) out.push(...wrap(`     code: ${c.code.status === "not-seen" ? "not seen" : "no map covers it"}`, 80, 7).map((l) => s.dim(l)));
+    if (c.code?.status === "used") out.push(...wrap(`     code: ${codeStatusText("used", c.code.users)} — removing it breaks that code; --write leaves it unless --remove-used`, 80, 7).map((l) => s.warn(l)));
+    else if (c.code) out.push(...wrap(`     code: ${codeStatusText(c.code.status)}`, 80, 7).map((l) => s.dim(l)));
     if (c.libraries?.length) out.push(...wrap(`     added by ${c.libraries.join(", ")}`, 80, 10));
     const how =
       c.action.kind === "limit"
@@ -86,7 +87,7 @@ export function deltaToText(d: Delta, files: [string, string], caution: string |
   if (d.code) {
     const c = d.code;
     out.push("", s.bold(`Code evidence (${c.appeared.length} appeared, ${c.vanished.length} vanished)`));
-    const line = (sign: string, e: (typeof c.appeared)[number]) => wrap(`  ${sign} ${e.what.includes("(") ? `${e.what.slice(0, e.what.indexOf("("))}(…)` : e.what} — ${e.permissions.map(short).join(" or ")}${e.packages.length ? ` (${e.packages.join(", ")})` : ""}`, 80, 6);
+    const line = (sign: string, e: (typeof c.appeared)[number]) => wrap(`  ${sign} ${evidenceLabel(e)} — ${e.permissions.map(short).join(" or ")}${e.packages.length ? ` (${e.packages.join(", ")})` : ""}`, 80, 6);
     for (const e of c.appeared) out.push(...line("+", e));
     for (const e of c.vanished) out.push(...line("-", e));
     for (const p of c.statusChanged) out.push(...wrap(`  ${short(p.permission)}: ${p.before} → ${p.after}`, 80, 6));

@@ -101,6 +101,10 @@ export function codeEvidence(manifest: Manifest, dexes: readonly DexInput[], map
       if (r === undefined) {
         const m = dex.methods[i];
         const owner = javaName(m.owner);
+        if (!map.methodOwners.has(owner)) {
+          methodKeys.set(i, null);
+          return null;
+        }
         const exact = `${owner}.${m.name}(${m.params.map(javaName).join(",")})${javaName(m.returns)}`;
         // The published map names one overload; the own table every overload. Both count.
         const e = map.methods.get(exact);
@@ -171,20 +175,20 @@ function ownFirst(own: string): (a: string, b: string) => number {
   return (a, b) => (a === own ? -1 : b === own ? 1 : a.localeCompare(b));
 }
 
-/** One line for a permission's evidence: "used: android.telephony.SmsManager.sendTextMessage(…) in 2 classes (org.example.adnet)". */
-export function describeEvidence(e: PermissionEvidence): string {
-  if (e.status === "not-mappable") return "not mappable: no map ties an API to it";
-  if (e.status === "not-seen") return `not seen in code (${BLIND_SPOTS})`;
-  const first = e.evidence[0];
-  const where = first.kind === "receiver" ? `a receiver listens for ${first.what}` : `${shortApi(first)} in ${first.classes} ${first.classes === 1 ? "class" : "classes"}`;
-  const more = e.evidence.length > 1 ? ` and ${e.evidence.length - 1} more` : "";
-  const who = e.users.length ? `; ${e.onlyLibraries ? "only by " : "by "}${e.users.join(", ")}` : "";
-  return `used: ${where}${more}${who}`;
+/**
+ * What the code shows for a permission, in the words every report uses: "used by org.example.app",
+ * "used only by org.example.adnet", "not seen", "not mappable".
+ */
+export function codeStatusText(status: CodeStatus, users: readonly string[] = [], onlyLibraries = false): string {
+  if (status === "used") return `used${users.length ? ` ${onlyLibraries ? "only by" : "by"} ${users.join(", ")}` : ""}`;
+  return status === "not-seen" ? "not seen" : "not mappable";
 }
 
-function shortApi(e: EvidenceItem): string {
+/** A piece of evidence, short: "android.telephony.SmsManager.sendTextMessage(…)", "content://sms string", "a receiver listens for …". */
+export function evidenceLabel(e: Pick<EvidenceItem, "kind" | "what">): string {
+  if (e.kind === "receiver") return `a receiver listens for ${e.what}`;
   if (e.kind === "uri") return `${e.what} string`;
   if (e.kind === "action") return `${e.what} action string`;
   const paren = e.what.indexOf("(");
-  return paren < 0 ? e.what : e.what.slice(0, paren);
+  return paren < 0 ? e.what : `${e.what.slice(0, paren)}(…)`;
 }

@@ -59,8 +59,8 @@ export interface Delta {
 
 export interface CodeDelta {
   /** Evidence (an API, URI, field, action or receiver) present now and not before, with the permissions it needs. */
-  appeared: { kind: string; what: string; permissions: string[]; packages: string[] }[];
-  vanished: { kind: string; what: string; permissions: string[]; packages: string[] }[];
+  appeared: { kind: EvidenceItem["kind"]; what: string; permissions: string[]; packages: string[] }[];
+  vanished: { kind: EvidenceItem["kind"]; what: string; permissions: string[]; packages: string[] }[];
   /** Permissions requested in both versions whose code status changed (`not-seen` → `used` …). */
   statusChanged: { permission: string; before: string; after: string }[];
 }

@@ -3,6 +3,7 @@
  * numbers behind it. Frequency judges only what it can (score/frequency.ts): never the app's own
  * permissions, and a permission newer than the baseline's era only through the one it took over from.
  */
+import { codeStatusText } from "../code-evidence.js";
 import { requestedPermissionNames } from "../../extract/manifest/model.js";
 import { platformPermission } from "../../platform/permissions.js";
 import { sensitivityOf, storeAppCanHold } from "../../platform/sensitivity.js";
@@ -54,12 +55,8 @@ export function rateFindings(ctx: CheckContext, select: (permission: string) => 
  */
 /** " Code: used only by org.example.adnet." — what the code evidence (score/judge.ts) adds to a finding. */
 export function codeSuffix(data: Finding["data"]): string {
-  if (data.code === "used") {
-    const users = Array.isArray(data.codeUsers) ? data.codeUsers : [];
-    return ` Code: used${users.length ? ` ${data.codeOnlyLibraries ? "only by" : "by"} ${users.join(", ")}` : ""}.`;
-  }
-  if (data.code === "not-seen") return " Code: not seen.";
-  return data.code === "not-mappable" ? " Code: no map covers it." : "";
+  if (data.code !== "used" && data.code !== "not-seen" && data.code !== "not-mappable") return "";
+  return ` Code: ${codeStatusText(data.code, Array.isArray(data.codeUsers) ? data.codeUsers : [], data.codeOnlyLibraries === true)}.`;
 }
 
 export function rateMessage(f: Pick<Finding, "subject" | "data">): string {
