@@ -4,4 +4,12 @@
 // CLI to one bundle in dist/bundle/ so that it starts quickly.
 import { run } from "../dist/bundle/main.js";
 
+// A reader that stops early (`overask check … | head`) closes the pipe: the output ends there, quietly.
+for (const stream of [process.stdout, process.stderr]) {
+  stream.on("error", (e) => {
+    if (e.code !== "EPIPE") throw e;
+    process.exit(process.exitCode ?? 0);
+  });
+}
+
 process.exitCode = await run(process.argv.slice(2));
