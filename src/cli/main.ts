@@ -123,6 +123,7 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
     .option("--level <check=level>", "override a check's level (repeatable)", collectLevels)
     .option("--prevalence <share>", "share of flagged apps in your population: shift the risk to it from the training base rate", openUnit)
     .option("--policy <file>", "evaluate this policy's rules too (repeatable; see overask rules)", collect)
+    .option("--no-code", "skip reading each app's dex code for code evidence (APKs and bundles)")
     .addOption(new Option("--fail-on <level>", "exit 1 when an app has a finding at or above this level").choices(["error", "warning", "note"]))
     .option("--max-risk <p>", "exit 1 when an app's risk is above this probability", closedUnit)
     .action(async (source: string, o: import("./sweep-command.js").SweepCliOptions) => {

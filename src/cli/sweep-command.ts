@@ -22,7 +22,7 @@ export interface SweepCliOptions extends JudgingCliOptions {
 
 export async function sweepCommand(source: string, o: SweepCliOptions, io: Io): Promise<number> {
   const loaded = loadJudge(o.baseline);
-  const judge = judgeOptions(o, loaded.judge.baseline);
+  const { readCode, ...judge } = judgeOptions(o, loaded.judge.baseline);
   const bar = progressBar(io.stderr);
   let summary;
   try {
@@ -32,6 +32,7 @@ export async function sweepCommand(source: string, o: SweepCliOptions, io: Io): 
       format: o.format,
       loaded,
       judge,
+      readCode: readCode !== false,
       jobs: o.jobs ?? availableParallelism(),
       resume: o.resume === true,
       ...(o.shard ? { shard: o.shard } : {}),

@@ -5,7 +5,7 @@
 import type { AppRow } from "../score/row.js";
 import { csvCell } from "../util/csv.js";
 
-export const ROW_CSV_COLUMNS = ["id", "size", "mtimeMs", "status", "package", "versionName", "versionCode", "category", "fallback", "risk", "band", "errors", "warnings", "notes", "checks", "errorKind", "errorMessage", "findings", "atypicality", "riskAtPrevalence"] as const;
+export const ROW_CSV_COLUMNS = ["id", "size", "mtimeMs", "status", "package", "versionName", "versionCode", "category", "fallback", "risk", "band", "errors", "warnings", "notes", "checks", "errorKind", "errorMessage", "findings", "atypicality", "riskAtPrevalence", "codeUsed", "codeNotSeen", "codeNotMappable", "codeLibraryOnly", "codeProblems"] as const;
 
 export function csvHeader(): string {
   return `${ROW_CSV_COLUMNS.join(",")}\n`;
@@ -33,10 +33,18 @@ export function rowToCsv(r: AppRow): string {
     // Every finding in words, one after another: `level checkId subject: message`, separated by " | ".
     atypicality: r.atypicality,
     riskAtPrevalence: r.riskAtPrevalence !== undefined ? r.riskAtPrevalence.toFixed(4) : undefined,
+    // Code evidence: requested permissions, space-separated, by what the code shows (empty without code).
+    codeUsed: r.code?.used.join(" "),
+    codeNotSeen: r.code?.notSeen.join(" "),
+    codeNotMappable: r.code?.notMappable.join(" "),
+    codeLibraryOnly: r.code?.libraryOnly.join(" "),
+    codeProblems: r.code?.problems.join(" | "),
     findings: r.findings?.map((f) => `${f.level} ${f.checkId} ${f.subject}${f.message ? `: ${f.message}` : ""}`).join(" | "),
   };
   return `${ROW_CSV_COLUMNS.map((c) => csvCell(cells[c])).join(",")}\n`;
 }
+
+const list = (cell: string) => (cell ? cell.split(" ") : []);
 
 /** The summary columns of a CSV row written by rowToCsv, or undefined when the fields are not such a row. */
 export function rowFromCsv(f: readonly string[]): AppRow | undefined {
@@ -52,5 +60,6 @@ export function rowFromCsv(f: readonly string[]): AppRow | undefined {
     ...(f[10] ? { band: f[10] } : {}),
     ...(f[8] ? { fallback: f[8] } : {}),
     ...(f[18] ? { atypicality: Number(f[18]) } : {}),
+    ...(f[20] || f[21] || f[22] || f[24] ? { code: { used: list(f[20]), notSeen: list(f[21]), notMappable: list(f[22]), libraryOnly: list(f[23]), problems: f[24] ? f[24].split(" | ") : [] } } : {}),
   };
 }

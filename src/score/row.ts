@@ -5,6 +5,7 @@
  * `--resume`.
  */
 import { requestedPermissionNames } from "../extract/manifest/model.js";
+import type { CodeEvidence, PermissionEvidence } from "./code-evidence.js";
 import type { CheckResult } from "./judge.js";
 import { wordFinding } from "./registry.js";
 import type { Finding, Level } from "./types.js";
@@ -36,7 +37,32 @@ export interface AppRow extends RowKey {
   findings?: { checkId: string; level: Level; subject: string; message?: string }[];
   whatIf?: { permission: string; without: number }[];
   permissions?: string[];
+  /** Code evidence, when the app's code was read (archives, unless `--no-code`). */
+  code?: RowCode;
   error?: { kind: string; message: string };
+}
+
+/** A row's code evidence: requested permissions by what the code shows, sorted. */
+export interface RowCode {
+  used: string[];
+  notSeen: string[];
+  notMappable: string[];
+  /** Used, but only by bundled libraries' packages (a subset of `used`). */
+  libraryOnly: string[];
+  /** "could not read classes2.dex: …", one a damaged dex. */
+  problems: string[];
+}
+
+/** The row form of a judgement's code evidence. */
+export function rowCode(code: CodeEvidence): RowCode {
+  const by = (status: PermissionEvidence["status"]) => code.permissions.filter((p) => p.status === status).map((p) => p.permission).sort();
+  return {
+    used: by("used"),
+    notSeen: by("not-seen"),
+    notMappable: by("not-mappable"),
+    libraryOnly: code.permissions.filter((p) => p.onlyLibraries).map((p) => p.permission).sort(),
+    problems: [...code.problems],
+  };
 }
 
 /** A finding's message, with the reasons folded into it (`also`), worded by their checks. */
@@ -63,6 +89,7 @@ export function rowOf(key: RowKey, r: CheckResult): AppRow {
     counts,
     findings: r.findings.map((f) => ({ checkId: f.checkId, level: f.level, subject: f.subject, message: messageWithAlso(f) })),
     permissions: requestedPermissionNames(m).sort(),
+    ...(r.code ? { code: rowCode(r.code) } : {}),
   };
   if (r.risk) {
     row.risk = r.risk.probability;

@@ -26,6 +26,8 @@ export interface PoolOptions {
   judge: JudgeOptions;
   format: SweepFormat;
   jobs: number;
+  /** Read each app's dex code for code evidence (`--no-code`: false). */
+  readCode: boolean;
 }
 
 /** Runs the inputs, calling `done` with each batch of rows as it arrives. */
@@ -33,7 +35,7 @@ export async function runPool(inputs: SweepInput[], options: PoolOptions, done: 
   if (options.jobs <= 1 || inputs.length <= 1) {
     const judge = new Judge(readBaselineFile(options.baselinePath));
     for (let i = 0; i < inputs.length; i += BATCH) {
-      done(inputs.slice(i, i + BATCH).map((input) => scoreToLine(judge, input, options.judge, options.format)));
+      done(inputs.slice(i, i + BATCH).map((input) => scoreToLine(judge, input, options.judge, options.format, options.readCode)));
       // Let the event loop breathe (progress, signals) between batches.
       await new Promise((r) => setImmediate(r));
     }
@@ -42,6 +44,7 @@ export async function runPool(inputs: SweepInput[], options: PoolOptions, done: 
   const setup: WorkerSetup = {
     baselinePath: options.baselinePath,
     format: options.format,
+    readCode: options.readCode,
     ...(options.judge.category ? { category: options.judge.category } : {}),
     ...(options.judge.categoryIndex ? { categoryIndex: [...options.judge.categoryIndex] } : {}),
     levels: [...(options.judge.levels ?? new Map())],

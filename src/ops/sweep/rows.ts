@@ -7,6 +7,7 @@ import { rowToCsv } from "../../report/csv.js";
 import type { Judge, JudgeOptions } from "../../score/judge.js";
 import type { Level } from "../../score/types.js";
 import { failedRow, rowOf, type AppRow } from "../../score/row.js";
+import { judgeFile } from "../check.js";
 import { readManifestFile } from "../read-manifest.js";
 
 export interface SweepInput {
@@ -21,11 +22,11 @@ export interface SweepInput {
 
 export type SweepFormat = "jsonl" | "csv";
 
-/** Reads and judges one input. */
-export function scoreInput(judge: Judge, input: SweepInput, options: JudgeOptions): AppRow {
+/** Reads and judges one input, with its code evidence unless `readCode` is false. */
+export function scoreInput(judge: Judge, input: SweepInput, options: JudgeOptions, readCode = true): AppRow {
   try {
     const m = readManifestFile(input.file, { resolveResources: false });
-    return rowOf(input, judge.judge(m, input.category ? { ...options, category: input.category } : options));
+    return rowOf(input, judgeFile(judge, input.file, { ...(input.category ? { ...options, category: input.category } : options), readCode }, m));
   } catch (e) {
     if (e instanceof InputError) return failedRow(input, { kind: e.name, message: e.detail() });
     return failedRow(input, { kind: "InternalError", message: e instanceof Error ? e.message : String(e) });
@@ -59,7 +60,7 @@ export function briefOf(row: AppRow): Omit<ScoredLine, "line"> {
 }
 
 /** Scores an input and serializes the row where it was scored (a worker), so that only a string travels. */
-export function scoreToLine(judge: Judge, input: SweepInput, options: JudgeOptions, format: SweepFormat): ScoredLine {
-  const row = scoreInput(judge, input, options);
+export function scoreToLine(judge: Judge, input: SweepInput, options: JudgeOptions, format: SweepFormat, readCode = true): ScoredLine {
+  const row = scoreInput(judge, input, options, readCode);
   return { ...briefOf(row), line: format === "jsonl" ? JSON.stringify(row) : rowToCsv(row).slice(0, -1) };
 }

@@ -31,6 +31,8 @@ export interface SweepOptions {
   loaded?: LoadedJudge;
   judge: JudgeOptions;
   jobs: number;
+  /** Read each app's dex code for code evidence; default true (`--no-code`: false). */
+  readCode?: boolean;
   resume: boolean;
   shard?: { index: number; count: number };
   /** Also write the self-contained HTML report here. */
@@ -99,7 +101,7 @@ export async function sweep(options: SweepOptions): Promise<SweepSummary> {
   }
   let done = kept.size;
   try {
-    await runPool(todo, { baselinePath, judge: options.judge, format: options.format, jobs: options.jobs }, (batch) => {
+    await runPool(todo, { baselinePath, judge: options.judge, format: options.format, jobs: options.jobs, readCode: options.readCode ?? true }, (batch) => {
       // One write per batch of whole lines: an interruption can tear at most the last line.
       let text = "";
       for (const scored of batch) {

@@ -11,6 +11,8 @@ import { scoreToLine, type SweepFormat, type SweepInput } from "./rows.js";
 export interface WorkerSetup {
   baselinePath: string;
   format: SweepFormat;
+  /** Read each app's dex code for code evidence. */
+  readCode: boolean;
   category?: string;
   categoryIndex?: [string, string][];
   levels?: [string, Level | "off"][];
@@ -31,5 +33,5 @@ const options = {
 
 // Inputs come in small batches, to keep the messaging cost per app low.
 parentPort!.on("message", (inputs: SweepInput[]) => {
-  parentPort!.postMessage(inputs.map((input) => scoreToLine(judge, input, options, setup.format)));
+  parentPort!.postMessage(inputs.map((input) => scoreToLine(judge, input, options, setup.format, setup.readCode)));
 });

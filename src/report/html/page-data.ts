@@ -20,6 +20,8 @@ export interface PageRow {
   counts: { error: number; warning: number; note: number } | null;
   findings: PageFinding[];
   whatIf: { permission: string; without: number }[];
+  /** Code evidence (requested permissions by what the code shows); null when the code was not read. */
+  code: { used: string[]; notSeen: string[]; notMappable: string[]; libraryOnly: string[]; problems: string[] } | null;
   error: string | null;
 }
 

@@ -145,7 +145,7 @@ describe("overask sweep", () => {
     const out = join(base, "out.csv");
     await cli(["sweep", dir, "-o", out, "-b", DEMO, "-j", "1", "--format", "csv"]);
     const text = readFileSync(out, "utf8");
-    expect(text.split("\n")[0]).toBe("id,size,mtimeMs,status,package,versionName,versionCode,category,fallback,risk,band,errors,warnings,notes,checks,errorKind,errorMessage,findings,atypicality,riskAtPrevalence");
+    expect(text.split("\n")[0]).toBe("id,size,mtimeMs,status,package,versionName,versionCode,category,fallback,risk,band,errors,warnings,notes,checks,errorKind,errorMessage,findings,atypicality,riskAtPrevalence,codeUsed,codeNotSeen,codeNotMappable,codeLibraryOnly,codeProblems");
     const inputs = readdirSync(APK_DIR).filter((f) => f.endsWith(".apk")).length + 2;
     expect(text.trim().split("\n")).toHaveLength(inputs + 1);
     const { stdout } = await cli(["sweep", dir, "-o", out, "-b", DEMO, "-j", "1", "--format", "csv", "--resume"]);
@@ -153,5 +153,38 @@ describe("overask sweep", () => {
     const again = readFileSync(out, "utf8").trim().split("\n");
     expect(again[0]).toBe(text.split("\n")[0]);
     expect(again.slice(1).sort()).toEqual(text.trim().split("\n").slice(1).sort());
+  });
+
+  it("gives each app with code its code evidence, in JSONL and CSV alike, and none with --no-code", async () => {
+    const list = join(base, "code-list.txt");
+    writeFileSync(list, `${APK_DIR}beamtorch-code.apk\n${APK_DIR}beamtorch.apk\n`);
+    const jsonl = join(base, "code.jsonl");
+    await cli(["sweep", list, "-o", jsonl, "-b", DEMO, "-j", "1"]);
+    const rows = readFileSync(jsonl, "utf8").trim().split("\n").map((l) => JSON.parse(l));
+    const withCode = rows.find((r) => r.id.endsWith("beamtorch-code.apk"));
+    // The same statuses `facts` and `check` give for this fixture (test/score/code-evidence.test.ts derives them
+    // from the smali source and the published map).
+    expect(withCode.code).toEqual({
+      used: ["android.permission.READ_CONTACTS", "android.permission.READ_SMS"],
+      notSeen: ["android.permission.CAMERA", "android.permission.POST_NOTIFICATIONS"],
+      notMappable: ["android.permission.ACCESS_BACKGROUND_LOCATION"],
+      libraryOnly: [],
+      problems: [],
+    });
+    // The APK without dex code has no code evidence, rather than "nothing used".
+    expect(rows.find((r) => r.id.endsWith("/beamtorch.apk")).code).toBeUndefined();
+    // The same row in CSV, read back.
+    const csv = join(base, "code.csv");
+    await cli(["sweep", list, "-o", csv, "-b", DEMO, "-j", "1", "--format", "csv"]);
+    const { rowFromCsv } = await import("../../../src/report/csv.js");
+    const { splitCsvLine } = await import("../../../src/util/csv.js");
+    const back = readFileSync(csv, "utf8").trim().split("\n").slice(1).map((l) => rowFromCsv(splitCsvLine(l)!)!);
+    expect(back.find((r) => r.id.endsWith("beamtorch-code.apk"))!.code).toEqual(withCode.code);
+    const skipped = join(base, "nocode.jsonl");
+    await cli(["sweep", list, "-o", skipped, "-b", DEMO, "-j", "2", "--no-code"]);
+    const plain = readFileSync(skipped, "utf8").trim().split("\n").map((l) => JSON.parse(l));
+    expect(plain.every((r) => r.code === undefined)).toBe(true);
+    expect(plain.find((r) => r.id.endsWith("beamtorch-code.apk")).findings.some((f: { checkId: string }) => f.checkId === "not-seen-in-code")).toBe(false);
+    expect(withCode.findings.filter((f: { checkId: string }) => f.checkId === "not-seen-in-code").map((f: { subject: string }) => f.subject).sort()).toEqual(withCode.code.notSeen);
   });
 });

@@ -57,6 +57,18 @@ describe.runIf(hasChromium)("the sweep's HTML report in chromium", () => {
     // Each finding comes with its message, not only its check.
     expect(await page.textContent("#apps tbody tr.details")).toMatch(/an accessibility service/);
 
+    // The code filter: only the fixture with dex code requests permissions its code was not seen to use.
+    await page.click("#apps tbody tr.app"); // fold the row again
+    await page.selectOption("#f-check", "");
+    await page.selectOption("#f-code", "not-seen");
+    expect(await page.textContent("#shown")).toBe(`1 of ${byRiskDesc.length} shown`);
+    expect(await page.textContent("#apps tbody tr.app td:nth-child(8)")).toBe("2");
+    await page.click("#apps tbody tr.app");
+    expect(await page.textContent("#apps tbody tr.details")).toMatch(/Code evidence — Used in code: READ_CONTACTS, READ_SMS; not seen in code: CAMERA, POST_NOTIFICATIONS; no map covers: ACCESS_BACKGROUND_LOCATION\./);
+    await page.selectOption("#f-code", "none");
+    expect(await page.textContent("#shown")).toBe(`${byRiskDesc.length - 1} of ${byRiskDesc.length} shown`);
+    await page.selectOption("#f-code", "");
+
     expect(await page.$$eval("#histogram svg rect", (r) => r.length)).toBeGreaterThan(0);
     expect(await page.textContent("#caution")).toMatch(/not evidence of intent or harm/);
     await page.selectOption("#f-check", "");
@@ -71,7 +83,7 @@ describe.runIf(hasChromium)("the sweep's HTML report in chromium", () => {
     const page = await browser.newPage();
     await page.goto(`file://${report}`);
     await page.waitForSelector("#apps tbody tr.app");
-    for (const key of ["risk", "warnings", "notes"]) {
+    for (const key of ["risk", "warnings", "notes", "code"]) {
       // Runs in the page (DOM types are not part of this project's Node build, hence `any`).
       const edges = await page.evaluate((k) => {
         const doc = (globalThis as any).document;

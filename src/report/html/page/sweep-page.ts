@@ -90,6 +90,19 @@ for (const c of data.checks) checkFilter.appendChild(el("option", { value: c.id 
 const bandFilter = byId<HTMLSelectElement>("f-band");
 const textFilter = byId<HTMLInputElement>("f-text");
 const atypicalFilter = byId<HTMLSelectElement>("f-atypical");
+const codeFilter = byId<HTMLSelectElement>("f-code");
+
+/** Whether a row passes the code-evidence filter. */
+function codeMatches(r: PageRow, want: string): boolean {
+  const c = r.code;
+  switch (want) {
+    case "not-seen": return !!c && c.notSeen.length > 0;
+    case "library-only": return !!c && c.libraryOnly.length > 0;
+    case "problems": return !!c && c.problems.length > 0;
+    case "none": return !c && r.status === "scored";
+    default: return true;
+  }
+}
 
 const state = { key: "risk", dir: -1 };
 function sortValue(r: PageRow, key: string): string | number {
@@ -101,6 +114,7 @@ function sortValue(r: PageRow, key: string): string | number {
     case "atypicality": return r.atypicality == null ? -1 : r.atypicality;
     case "warnings": return r.counts ? r.counts.warning + 100 * r.counts.error : -1;
     case "notes": return r.counts ? r.counts.note : -1;
+    case "code": return r.code ? r.code.notSeen.length : -1;
     default: return 0;
   }
 }
@@ -113,6 +127,7 @@ function render(): void {
     if (cat && (cat === "(pooled)" ? r.category : r.category !== cat)) return false;
     if (band && (band === "failed" ? r.status !== "failed" : r.band !== band)) return false;
     if (check && !r.findings.some((f) => f.checkId === check)) return false;
+    if (!codeMatches(r, codeFilter.value)) return false;
     if (atypicalAbove >= 0 && !(r.atypicality != null && r.atypicality > atypicalAbove)) return false;
     if (text && (r.package || "").toLowerCase().indexOf(text) < 0 && r.id.toLowerCase().indexOf(text) < 0) return false;
     return true;
@@ -136,8 +151,9 @@ function render(): void {
     tr.appendChild(el("td", { class: "num" }, r.atypicality == null ? "—" : `${Math.floor(r.atypicality)}`));
     tr.appendChild(el("td", { class: "num" }, r.counts ? String(r.counts.warning + r.counts.error) : "—"));
     tr.appendChild(el("td", { class: "num" }, r.counts ? String(r.counts.note) : "—"));
+    tr.appendChild(el("td", { class: "num", title: r.code ? "" : "code not read" }, r.code ? String(r.code.notSeen.length) : "—"));
     const details = el("tr", { class: "details", hidden: "" });
-    const td = el("td", { colspan: "7" });
+    const td = el("td", { colspan: "8" });
     if (r.error) td.appendChild(el("div", { class: "lvl-error" }, `Could not be read: ${r.error}`));
     if (r.findings.length) {
       const ul = el("ul");
@@ -154,6 +170,13 @@ function render(): void {
       const ul2 = el("ul");
       for (const w of r.whatIf) ul2.appendChild(el("li", null, `${short(w.permission)}: ${pct(r.risk)} → ${pct(w.without)}`));
       td.appendChild(ul2);
+    }
+    if (r.code) {
+      const c = r.code;
+      const line = (label: string, list: string[]) => (list.length ? `${label}: ${list.map(short).join(", ")}` : "");
+      const parts = [line("Used in code", c.used), line("used only by libraries", c.libraryOnly), line("not seen in code", c.notSeen), line("no map covers", c.notMappable)].filter(Boolean);
+      if (parts.length) td.appendChild(el("div", { class: "legend" }, `Code evidence — ${parts.join("; ")}.`));
+      for (const p of c.problems) td.appendChild(el("div", { class: "lvl-warning" }, p));
     }
     details.appendChild(td);
     const toggle = () => (details.hasAttribute("hidden") ? details.removeAttribute("hidden") : details.setAttribute("hidden", ""));
@@ -179,7 +202,7 @@ document.querySelectorAll<HTMLElement>("#apps th").forEach((th) => {
     render();
   });
 });
-for (const f of [categoryFilter, bandFilter, checkFilter, atypicalFilter]) f.addEventListener("change", render);
+for (const f of [categoryFilter, bandFilter, checkFilter, atypicalFilter, codeFilter]) f.addEventListener("change", render);
 textFilter.addEventListener("input", render);
 render();
 
