@@ -5,14 +5,14 @@
 import { build } from "esbuild";
 
 await build({
-  entryPoints: { main: "src/cli/main.ts", "sweep-worker": "src/ops/sweep/worker.ts" },
+  entryPoints: { main: "src/cli/main.ts", "sweep-worker": "src/ops/sweep/worker.ts", "queue-worker": "src/ops/queue/thread.ts" },
   outdir: "dist/bundle",
   bundle: true,
   splitting: true,
   format: "esm",
   platform: "node",
   target: "node20",
-  external: ["xml2js", "cli-progress"],
+  external: ["xml2js", "cli-progress", "bullmq", "ioredis"],
   banner: { js: 'import { createRequire as __overaskRequire } from "node:module"; const require = __overaskRequire(import.meta.url);' },
   logLevel: "warning",
   legalComments: "linked",

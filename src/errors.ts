@@ -28,6 +28,11 @@ export class InputError extends Error {
   }
 }
 
+/** The sweep's queue (Redis) cannot be reached or used; `file` is its address, shown without password. */
+export class QueueError extends InputError {
+  override name = "QueueError";
+}
+
 /** The zip container is damaged, lies about itself or lacks the manifest. */
 export class ArchiveError extends InputError {
   override name = "ArchiveError";

@@ -124,11 +124,25 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
     .option("--prevalence <share>", "share of flagged apps in your population: shift the risk to it from the training base rate", openUnit)
     .option("--policy <file>", "evaluate this policy's rules too (repeatable; see overask rules)", collect)
     .option("--no-code", "skip reading each app's dex code for code evidence (APKs and bundles)")
+    .option("--queue <redis-url>", "spread the inputs over workers through a Redis queue: redis[s]://host:port/<queue name> (workers run overask work)")
+    .option("--clear-queue", "with --queue: drop another sweep's jobs found in the queue instead of refusing")
     .addOption(new Option("--fail-on <level>", "exit 1 when an app has a finding at or above this level").choices(["error", "warning", "note"]))
     .option("--max-risk <p>", "exit 1 when an app's risk is above this probability", closedUnit)
     .action(async (source: string, o: import("./sweep-command.js").SweepCliOptions) => {
       const { sweepCommand } = await import("./sweep-command.js");
       exitCode = await sweepCommand(source, o, io);
+    });
+
+  program
+    .command("work")
+    .description("take a queued sweep's jobs (from sweep --queue) until stopped; run it on any number of machines that can read the inputs")
+    .argument("<redis-url>", "the queue: redis[s]://[user[:password]@]host:port/<queue name> (password also from OVERASK_REDIS_PASSWORD)")
+    .option("-j, --jobs <n>", "worker threads (default: the number of cores)", wholeNumber(1))
+    .option("-b, --baseline <file>", "baseline file: the same as the producer's (default: the bundled baselines/default.json)")
+    .option("--drain", "stop once the queue has nothing left to run")
+    .action(async (url: string, o: import("./work-command.js").WorkCliOptions) => {
+      const { workCommand } = await import("./work-command.js");
+      exitCode = await workCommand(url, o, io);
     });
 
   judging(program.command("trim"), ["text", "json"])

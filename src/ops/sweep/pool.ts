@@ -9,7 +9,7 @@ import { InputError } from "../../errors.js";
 import { Judge, type JudgeOptions } from "../../score/judge.js";
 import { readBaselineFile } from "../baseline.js";
 import { packageRoot } from "../package-root.js";
-import { scoreToLine, type ScoredLine, type SweepFormat, type SweepInput } from "./rows.js";
+import { scoreToLine, setupOf, type ScoredLine, type SweepFormat, type SweepInput } from "./rows.js";
 import type { WorkerSetup } from "./worker.js";
 
 /** Most inputs sent to a worker at once: few enough to keep the workers even, many enough to keep messages cheap. */
@@ -41,16 +41,7 @@ export async function runPool(inputs: SweepInput[], options: PoolOptions, done: 
     }
     return;
   }
-  const setup: WorkerSetup = {
-    baselinePath: options.baselinePath,
-    format: options.format,
-    readCode: options.readCode,
-    ...(options.judge.category ? { category: options.judge.category } : {}),
-    ...(options.judge.categoryIndex ? { categoryIndex: [...options.judge.categoryIndex] } : {}),
-    levels: [...(options.judge.levels ?? new Map())],
-    ...(options.judge.policies ? { policies: [...options.judge.policies] } : {}),
-    ...(options.judge.prevalence !== undefined ? { prevalence: options.judge.prevalence } : {}),
-  };
+  const setup: WorkerSetup = { baselinePath: options.baselinePath, ...setupOf(options.judge, options.format, options.readCode) };
   const file = workerFile();
   let next = 0;
   await new Promise<void>((resolve, reject) => {

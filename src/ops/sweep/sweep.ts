@@ -19,7 +19,7 @@ import { listInputs, shardOf } from "./inputs.js";
 import { runPool } from "./pool.js";
 import { writeSweepReport } from "./report.js";
 import { compactOutput, readRows } from "./resume.js";
-import type { ScoredLine, SweepFormat } from "./rows.js";
+import type { ScoredLine, SweepFormat, SweepInput } from "./rows.js";
 
 export interface SweepOptions {
   source: string;
@@ -52,7 +52,7 @@ export interface SweepSummary extends SweepTotals {
 const TOP = 10;
 
 /** Running totals for the summary, so that no result has to stay in memory. */
-class Tally {
+export class Tally {
   scored = 0;
   failed = 0;
   unknownCategory = 0;
@@ -77,64 +77,111 @@ class Tally {
   }
 }
 
-export async function sweep(options: SweepOptions): Promise<SweepSummary> {
-  const { judge, baselinePath, baselineName } = options.loaded ?? loadJudge(options.baseline);
-  const walked = { notManifests: 0 };
-  let inputs = listInputs(options.source, walked);
-  if (inputs.length === 0) {
-    throw new InputError(`nothing to sweep: no APK, app bundle or manifest${walked.notManifests ? ` (${walked.notManifests} .xml file${walked.notManifests === 1 ? "" : "s"} that are not manifests passed over)` : ""}`, { file: options.source });
-  }
-  if (options.shard) inputs = inputs.filter((i) => shardOf(i.id, options.shard!.count) === options.shard!.index - 1);
-  const tally = new Tally(options.gates);
-  const kept = options.resume ? compactOutput(options.output, options.format, inputs, (r) => tally.add(r)) : new Set<string>();
-  const todo = inputs.filter((i) => !kept.has(i.id));
+/** What a sweep's output needs to know, for local and queued sweeps alike. */
+export interface OutputOptions {
+  output: string;
+  format: SweepFormat;
+  resume: boolean;
+  gates?: Gates;
+  shard?: { index: number; count: number };
+  html?: string;
+}
 
-  // Append each batch of results as it arrives; on a fresh run, start the file anew.
-  let fd: number;
-  try {
-    // After compaction a resumed output already starts with its CSV header.
-    const append = options.resume && existsSync(options.output);
-    fd = openSync(options.output, append ? "a" : "w");
-    if (!append && options.format === "csv") writeSync(fd, csvHeader());
-  } catch (e) {
-    throw new OutputError(`cannot be written: ${outputProblem(e)}`, { file: options.output });
+/**
+ * A sweep's output file and running totals: rows are appended a batch of whole lines at a time, so an
+ * interruption can tear at most the last line; `--resume` first keeps the rows of unchanged inputs.
+ */
+export class SweepOutput {
+  readonly tally: Tally;
+  /** Ids of the inputs whose rows were kept from an earlier run. */
+  readonly kept: Set<string>;
+  private readonly fd: number;
+  constructor(private readonly options: OutputOptions, inputs: SweepInput[]) {
+    this.tally = new Tally(options.gates);
+    this.kept = options.resume ? compactOutput(options.output, options.format, inputs, (r) => this.tally.add(r)) : new Set<string>();
+    try {
+      // After compaction a resumed output already starts with its CSV header; a fresh run starts anew.
+      const append = options.resume && existsSync(options.output);
+      this.fd = openSync(options.output, append ? "a" : "w");
+      if (!append && options.format === "csv") writeSync(this.fd, csvHeader());
+    } catch (e) {
+      throw new OutputError(`cannot be written: ${outputProblem(e)}`, { file: options.output });
+    }
   }
-  let done = kept.size;
+
+  get format(): SweepFormat {
+    return this.options.format;
+  }
+
+  /** Appends a batch of rows in one write. */
+  write(batch: readonly ScoredLine[]): void {
+    let text = "";
+    for (const scored of batch) {
+      text += `${scored.line}\n`;
+      this.tally.add(scored);
+    }
+    try {
+      writeSync(this.fd, text);
+    } catch (e) {
+      throw new OutputError(`cannot be written: ${outputProblem(e)}`, { file: this.options.output });
+    }
+  }
+
+  close(): void {
+    closeSync(this.fd);
+  }
+
+  /** The summary once every row is written; writes the HTML report when asked. */
+  finish(loaded: LoadedJudge, inputs: number, notManifests: number): SweepSummary {
+    const { judge } = loaded;
+    const o = this.options;
+    const t = this.tally;
+    const summary: SweepSummary = {
+      inputs,
+      skipped: this.kept.size,
+      notManifests,
+      unknownCategory: t.unknownCategory,
+      gated: t.gated,
+      scored: t.scored,
+      failed: t.failed,
+      byBand: t.byBand,
+      top: t.top,
+      ...(o.shard ? { shard: o.shard } : {}),
+      output: o.output,
+      ...(o.html ? { html: o.html } : {}),
+      ...(judge.scorer ? { caution: judge.file.caution, baseRate: judge.scorer.model.evaluation.baseRate } : {}),
+      rows: () => readRows(o.output, o.format),
+    };
+    if (o.html) writeSweepReport({ output: o.output, format: o.format, html: o.html, loaded, inputs });
+    return summary;
+  }
+}
+
+/** The inputs of a sweep source (of one shard, when asked); nothing to sweep is an error. */
+export function sweepInputs(source: string, shard?: { index: number; count: number }): { inputs: SweepInput[]; notManifests: number } {
+  const walked = { notManifests: 0 };
+  let inputs = listInputs(source, walked);
+  if (inputs.length === 0) {
+    throw new InputError(`nothing to sweep: no APK, app bundle or manifest${walked.notManifests ? ` (${walked.notManifests} .xml file${walked.notManifests === 1 ? "" : "s"} that are not manifests passed over)` : ""}`, { file: source });
+  }
+  if (shard) inputs = inputs.filter((i) => shardOf(i.id, shard.count) === shard.index - 1);
+  return { inputs, notManifests: walked.notManifests };
+}
+
+export async function sweep(options: SweepOptions): Promise<SweepSummary> {
+  const loaded = options.loaded ?? loadJudge(options.baseline);
+  const { inputs, notManifests } = sweepInputs(options.source, options.shard);
+  const out = new SweepOutput(options, inputs);
+  const todo = inputs.filter((i) => !out.kept.has(i.id));
+  let done = out.kept.size;
   try {
-    await runPool(todo, { baselinePath, judge: options.judge, format: options.format, jobs: options.jobs, readCode: options.readCode ?? true }, (batch) => {
-      // One write per batch of whole lines: an interruption can tear at most the last line.
-      let text = "";
-      for (const scored of batch) {
-        text += `${scored.line}\n`;
-        tally.add(scored);
-      }
-      try {
-        writeSync(fd, text);
-      } catch (e) {
-        throw new OutputError(`cannot be written: ${outputProblem(e)}`, { file: options.output });
-      }
+    await runPool(todo, { baselinePath: loaded.baselinePath, judge: options.judge, format: options.format, jobs: options.jobs, readCode: options.readCode ?? true }, (batch) => {
+      out.write(batch);
       done += batch.length;
       options.onProgress?.(done, inputs.length);
     });
   } finally {
-    closeSync(fd);
+    out.close();
   }
-  const summary: SweepSummary = {
-    inputs: inputs.length,
-    skipped: kept.size,
-    notManifests: walked.notManifests,
-    unknownCategory: tally.unknownCategory,
-    gated: tally.gated,
-    scored: tally.scored,
-    failed: tally.failed,
-    byBand: tally.byBand,
-    top: tally.top,
-    ...(options.shard ? { shard: options.shard } : {}),
-    output: options.output,
-    ...(options.html ? { html: options.html } : {}),
-    ...(judge.scorer ? { caution: judge.file.caution, baseRate: judge.scorer.model.evaluation.baseRate } : {}),
-    rows: () => readRows(options.output, options.format),
-  };
-  if (options.html) writeSweepReport({ output: options.output, format: options.format, html: options.html, loaded: { judge, baselinePath, baselineName }, inputs: inputs.length });
-  return summary;
+  return out.finish(loaded, inputs.length, notManifests);
 }
