@@ -142,6 +142,7 @@ const COVERED_ELSEWHERE: Record<string, string> = {
   "ops/sweep/rows.ts": "test/ops/sweep/sweep.test.ts",
   "ops/sweep/worker.ts": "test/ops/sweep/sweep.test.ts",
   "ops/queue/jobs.ts": "test/ops/queue/queue.test.ts",
+  "baseline/bands.ts": "test/score/risk.test.ts",
   "ops/queue/produce.ts": "test/ops/queue/queue.test.ts",
   "ops/queue/redis.ts": "test/ops/queue/queue.test.ts",
   "ops/queue/serve.ts": "test/ops/queue/queue.test.ts",

@@ -2,6 +2,7 @@
  * A baseline's era: the newest platform level its corpus can speak for. Permissions added after it were
  * not there to be requested when the corpus was collected, so their absence from it says nothing.
  */
+import { compareText } from "../util/compare.js";
 import { addedIn, judgeByEra, type EraJudgement } from "../platform/eras.js";
 import type { CountTable } from "./counts.js";
 import type { Baseline } from "./rates.js";
@@ -52,7 +53,7 @@ export function frequencyBasis(baseline: Pick<Baseline, "era" | "rate">, categor
   const j = judgeByEra(permission, baseline.era);
   if (j.kind === "own") return { kind: "own", basis: permission };
   if (j.kind === "predecessor") {
-    const basis = j.predecessors.map((p) => ({ p, rate: baseline.rate(category, p).rate })).sort((a, b) => b.rate - a.rate || a.p.localeCompare(b.p))[0].p;
+    const basis = j.predecessors.map((p) => ({ p, rate: baseline.rate(category, p).rate })).sort((a, b) => b.rate - a.rate || compareText(a.p, b.p))[0].p;
     return { kind: "predecessor", basis, judgement: j };
   }
   return { kind: j.kind, judgement: j };

@@ -7,6 +7,7 @@
 import { InputError, LimitError, withFile } from "../errors.js";
 import { LIMITS } from "../limits.js";
 import { decodeBinaryXml } from "./binary/binary-xml.js";
+import { readDexEntries, wantedCodeEntry, type DexInput } from "./code.js";
 import { fromApk, MANIFEST_ENTRY, PROTO_RESOURCE_TABLE_ENTRY, RESOURCE_TABLE_ENTRY, type ReadOptions } from "./containers/apk.js";
 import { BUNDLE_MANIFEST, BUNDLE_RESOURCE_TABLE, fromBundle, isBundle } from "./containers/bundle.js";
 import { fromMultiApk, isMultiApk, NESTED_APK } from "./containers/multi-apk.js";
@@ -40,6 +41,21 @@ export function readManifestBytes(bytes: Uint8Array, label = "<input>", options:
  * of a large archive it needs. The source is closed before this returns or throws.
  */
 export function readManifestSource(source: RandomAccessSource, label: string, options: ReadOptions = {}): Manifest {
+  return readAppSource(source, label, options, false).manifest;
+}
+
+/** A manifest and, when asked for and the input is an archive that carries any, its dex code. */
+export interface AppRead {
+  manifest: Manifest;
+  /** Each dex entry read (or its problem); absent for bare manifests and when code was not asked for. */
+  dexes?: DexInput[];
+}
+
+/**
+ * Reads a manifest and (with `code`) the app's dex entries in one opening of the archive. A damaged dex,
+ * or dex entries that cannot be read at all, cost the code evidence (a problem entry), never the manifest.
+ */
+export function readAppSource(source: RandomAccessSource, label: string, options: ReadOptions = {}, code = false): AppRead {
   let owned = true;
   try {
     const head = new Uint8Array(Math.min(DETECT_BYTES, source.size));
@@ -47,9 +63,15 @@ export function readManifestSource(source: RandomAccessSource, label: string, op
     const kind = detectKind(head.subarray(0, n));
     if (kind === "zip") {
       owned = false; // from here the archive reader closes it, also when it fails
-      return fromArchive(openArchive(source, wantedEntry), options);
+      const archive = openArchive(source, code ? (name) => wantedEntry(name) || wantedCodeEntry(name) : wantedEntry);
+      try {
+        const manifest = fromArchiveOpen(archive, options);
+        return code ? { manifest, dexes: dexesOf(archive) } : { manifest };
+      } finally {
+        archive.close();
+      }
     }
-    if (kind === "unknown") return fromBareBytes(head.subarray(0, n), kind);
+    if (kind === "unknown") return { manifest: fromBareBytes(head.subarray(0, n), kind) };
     if (source.size > LIMITS.MAX_MANIFEST_BYTES) throw new LimitError("MAX_MANIFEST_BYTES", source.size, LIMITS.MAX_MANIFEST_BYTES, "manifest file has a size in bytes of");
     const bytes = new Uint8Array(source.size);
     let done = 0;
@@ -58,11 +80,21 @@ export function readManifestSource(source: RandomAccessSource, label: string, op
       if (got === 0) break;
       done += got;
     }
-    return fromBareBytes(bytes.subarray(0, done), kind);
+    return { manifest: fromBareBytes(bytes.subarray(0, done), kind) };
   } catch (e) {
     throw withFile(e, label);
   } finally {
     if (owned) source.close();
+  }
+}
+
+/** The archive's dex entries; an archive whose code cannot be listed is one problem entry. */
+function dexesOf(archive: ArchiveReader): DexInput[] {
+  try {
+    return readDexEntries(archive);
+  } catch (e) {
+    if (!(e instanceof InputError)) throw e;
+    return [{ entry: "archive", problem: e.detail() }];
   }
 }
 
@@ -86,12 +118,17 @@ function fromBareBytes(bytes: Uint8Array, kind: DetectedKind): Manifest {
 /** Dispatches a zip by what it holds: an APK, an app bundle, or a multi-APK archive. Closes the archive. */
 function fromArchive(archive: ArchiveReader, options: ReadOptions): Manifest {
   try {
-    const entries = archive.entries();
-    if (entries.some((e) => e.name === MANIFEST_ENTRY)) return fromApk(archive, options);
-    if (isBundle(entries)) return fromBundle(archive, entries);
-    if (isMultiApk(entries)) return fromMultiApk(archive, entries);
-    throw new InputError(`no ${MANIFEST_ENTRY} in archive (is this an APK?)`);
+    return fromArchiveOpen(archive, options);
   } finally {
     archive.close();
   }
+}
+
+/** The dispatch of fromArchive, leaving the archive open. */
+function fromArchiveOpen(archive: ArchiveReader, options: ReadOptions): Manifest {
+  const entries = archive.entries();
+  if (entries.some((e) => e.name === MANIFEST_ENTRY)) return fromApk(archive, options);
+  if (isBundle(entries)) return fromBundle(archive, entries);
+  if (isMultiApk(entries)) return fromMultiApk(archive, entries);
+  throw new InputError(`no ${MANIFEST_ENTRY} in archive (is this an APK?)`);
 }

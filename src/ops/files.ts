@@ -13,6 +13,8 @@ export function fsError(e: unknown): unknown {
   if (code === "ENOENT") return new InputError("no such file");
   if (code === "EACCES" || code === "EPERM") return new InputError("permission denied");
   if (code === "EISDIR") return new InputError("is a directory, not a file");
+  // A socket (or a device with no driver) cannot be opened at all.
+  if (code === "ENXIO" || code === "ENODEV") return new InputError("is not a regular file (a device, FIFO or socket); give an APK or manifest file");
   return e;
 }
 

@@ -3,9 +3,9 @@
  * (a folder, a FIFO or a device would block or mislead), and hands the extract layer a random-access
  * view of it.
  */
-import { closeSync, fstatSync, openSync, readSync, statSync } from "node:fs";
+import { closeSync, constants as fsConstants, fstatSync, openSync, readSync } from "node:fs";
 import { InputError, withFile } from "../errors.js";
-import { readManifestSource, type ReadOptions } from "../extract/read.js";
+import { readAppSource, type AppRead, type ReadOptions } from "../extract/read.js";
 import { openArchive, type ArchiveReader, type RandomAccessSource } from "../extract/containers/zip.js";
 import { readDexEntries, wantedCodeEntry, type DexInput } from "../extract/code.js";
 import { codeEvidence, type CodeEvidence } from "../score/code-evidence.js";
@@ -29,19 +29,31 @@ export function fdSource(fd: number, size: number): RandomAccessSource {
 
 /** Reads a manifest from a file on disk, touching only the parts of a large archive it needs. */
 export function readManifestFile(path: string, options: ReadOptions = {}): Manifest {
+  return readAppFile(path, options, false).manifest;
+}
+
+/**
+ * Reads a file's manifest and, with `code`, its code evidence, opening the file once: a bare manifest, or
+ * an archive without dex (a resource-only build), has none (`code` undefined).
+ */
+export function readAppFile(path: string, options: ReadOptions = {}, code = false): { manifest: Manifest; code?: CodeEvidence } {
+  const read = readAppSourceFile(path, options, code);
+  return read.dexes?.length ? { manifest: read.manifest, code: codeEvidence(read.manifest, read.dexes) } : { manifest: read.manifest };
+}
+
+function readAppSourceFile(path: string, options: ReadOptions, code: boolean): AppRead {
   let fd: number | undefined;
   try {
-    // Opening a FIFO waits for a writer, so the path is looked at before it is opened.
-    const kind = statSync(path);
-    if (!kind.isFile() && !kind.isDirectory()) throw new InputError("is not a regular file (a device, FIFO or socket); give an APK or manifest file");
-    // One open for everything: the kind is told from the first bytes, then the same descriptor is read.
-    fd = openSync(path, "r");
+    // Opening a FIFO would wait for a writer: opened without blocking, then refused by what fstat says.
+    // (On a regular file O_NONBLOCK changes nothing.) One open for everything: the kind is told from the
+    // first bytes, then the same descriptor is read.
+    fd = openSync(path, fsConstants.O_RDONLY | fsConstants.O_NONBLOCK);
     const st = fstatSync(fd);
     if (st.isDirectory()) throw new InputError("is a directory, not an APK or manifest");
     if (!st.isFile()) throw new InputError("is not a regular file (a device, FIFO or socket); give an APK or manifest file");
     const source = fdSource(fd, st.size);
     fd = undefined; // the source owns it now
-    return readManifestSource(source, path, options);
+    return readAppSource(source, path, options, code);
   } catch (e) {
     throw withFile(fsError(e), path);
   } finally {

@@ -4,6 +4,7 @@
  * obfuscated app, so renamed app classes do not matter; what the maps cannot see (reflection, native
  * code, dynamically loaded code, WebView bridges, APIs outside the maps) is said beside every "not seen".
  */
+import { compareText } from "../util/compare.js";
 import type { DexInput } from "../extract/code.js";
 import { javaName, type DexFile } from "../extract/dex/dex.js";
 import { InputError } from "../errors.js";
@@ -154,7 +155,7 @@ export function codeEvidence(manifest: Manifest, dexes: readonly DexInput[], map
   const toItems = (list: Hit[] = []): EvidenceItem[] =>
     list
       .map((h) => ({ ...h.item, classes: h.item.kind === "receiver" ? 0 : h.classes.size, packages: [...h.packages].sort(ownFirst(manifest.package)) }))
-      .sort((a, b) => b.classes - a.classes || a.what.localeCompare(b.what));
+      .sort((a, b) => b.classes - a.classes || compareText(a.what, b.what));
   // With no dex read (all damaged), nothing can be said per permission: only the problems.
   const requested = read.length ? requestedPermissionNames(manifest) : [];
   const permissions = requested.map((permission): PermissionEvidence => {
@@ -167,12 +168,12 @@ export function codeEvidence(manifest: Manifest, dexes: readonly DexInput[], map
   const unrequested = [...hits.values()]
     .filter((h) => !h.permissions.some((p) => asked.has(p)))
     .map((h) => ({ permissions: [...h.permissions].sort(), evidence: toItems([h])[0] }))
-    .sort((a, b) => a.permissions[0].localeCompare(b.permissions[0]) || a.evidence.what.localeCompare(b.evidence.what));
+    .sort((a, b) => compareText(a.permissions[0], b.permissions[0]) || compareText(a.evidence.what, b.evidence.what));
   return { read, problems, permissions, unrequested, blindSpots: BLIND_SPOTS };
 }
 
 function ownFirst(own: string): (a: string, b: string) => number {
-  return (a, b) => (a === own ? -1 : b === own ? 1 : a.localeCompare(b));
+  return (a, b) => (a === own ? -1 : b === own ? 1 : compareText(a, b));
 }
 
 /**

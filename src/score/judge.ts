@@ -2,6 +2,7 @@
  * Judging one app: its category, every check, and the risk estimate. Pure: the manifest and the baseline
  * in, a result out; the CLI does the reading and the printing.
  */
+import { compareText } from "../util/compare.js";
 import type { CodeEvidence } from "./code-evidence.js";
 import type { BaselineFile } from "../baseline/baseline-file.js";
 import { baselineOf } from "../baseline/baseline-file.js";
@@ -88,7 +89,7 @@ export class Judge {
         if (e && f.checkId !== "not-seen-in-code") f.data = { ...f.data, code: e.status, ...(e.users.length ? { codeUsers: e.users, codeOnlyLibraries: e.onlyLibraries } : {}) };
       }
     }
-    findings.sort((a, b) => levelRank(b.level) - levelRank(a.level) || a.checkId.localeCompare(b.checkId) || a.subject.localeCompare(b.subject));
+    findings.sort((a, b) => levelRank(b.level) - levelRank(a.level) || compareText(a.checkId, b.checkId) || compareText(a.subject, b.subject));
     const requested = requestedPermissionNames(manifest);
     const notJudged: NotJudged[] = [];
     for (const p of requested) {
@@ -104,7 +105,7 @@ export class Judge {
     if (options.policies?.length) {
       const subject = { manifest, ...(category.category ? { category: category.category } : {}), ...(result.risk ? { risk: result.risk.probability } : {}), ...(result.risk?.atypicality ? { atypicality: result.risk.atypicality.percentile } : {}) };
       for (const p of options.policies) findings.push(...evaluatePolicy(p, subject));
-      findings.sort((a, b) => levelRank(b.level) - levelRank(a.level) || a.checkId.localeCompare(b.checkId) || a.subject.localeCompare(b.subject));
+      findings.sort((a, b) => levelRank(b.level) - levelRank(a.level) || compareText(a.checkId, b.checkId) || compareText(a.subject, b.subject));
     }
     return result;
   }

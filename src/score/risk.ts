@@ -5,9 +5,10 @@
  * removing each requested permission would do to it, and the label-free atypicality beside it. Always
  * worded as an association with the flagged apps of the named corpus — never as a cause.
  */
+import { compareText } from "../util/compare.js";
 import { percentileOf } from "../baseline/atypicality.js";
 import type { BaselineFile, StoredModel } from "../baseline/baseline-file.js";
-import { appTerms, TERM_DESCRIPTIONS, TERM_NAMES, type TermName } from "../baseline/features.js";
+import { permissionTerms, TERM_DESCRIPTIONS, TERM_NAMES, type TermName } from "../baseline/features.js";
 import type { Baseline } from "../baseline/rates.js";
 
 
@@ -38,8 +39,8 @@ export interface RiskEstimate {
   caution: string;
 }
 
-export { bandCutPoints, bandOf, type Band } from "../baseline/model.js";
-import { bandCutPoints, bandOf, type Band } from "../baseline/model.js";
+export { bandCutPoints, bandOf, type Band } from "../baseline/bands.js";
+import { bandCutPoints, bandOf, type Band } from "../baseline/bands.js";
 
 const logit = (p: number) => Math.log(p / (1 - p));
 const sigmoid = (z: number) => 1 / (1 + Math.exp(-z));
@@ -70,14 +71,42 @@ export class RiskScorer {
 
   /** Log-odds of an app in `category` requesting `permissions`. */
   logOdds(category: string | undefined, permissions: readonly string[]): number {
+    const perms = [...new Set(permissions)];
+    return this.parts(category, perms).z();
+  }
+
+  /**
+   * Each permission's weight and category terms, looked up once, and the log-odds of the app with any
+   * one of them left out — summed in the same order as for the whole app, so that a what-if figure is
+   * exactly the log-odds of the smaller app (not the whole minus a part, which rounds differently).
+   */
+  private parts(category: string | undefined, perms: readonly string[]): { z: (without?: (i: number) => boolean) => number; terms: number[] } {
     const m = this.model;
-    let z = m.intercept;
-    for (const p of new Set(permissions)) {
+    const weight = perms.map((p) => {
       const j = this.index.get(p);
-      if (j !== undefined) z += m.permissionWeights[j];
-    }
-    appTerms(this.baseline, category, new Set(permissions)).forEach((t, k) => (z += m.termWeights[k] * t));
-    return z;
+      return j === undefined ? undefined : m.permissionWeights[j];
+    });
+    const t = perms.map((p) => permissionTerms(this.baseline, category, p));
+    const z = (without?: (i: number) => boolean): number => {
+      let sum = m.intercept;
+      for (let i = 0; i < perms.length; i++) if (weight[i] !== undefined && !without?.(i)) sum += weight[i]!;
+      termsOf(without).forEach((v, k) => (sum += m.termWeights[k] * v));
+      return sum;
+    };
+    // The three category-relative terms in TERM_NAMES order, summed as appTerms sums them.
+    const termsOf = (without?: (i: number) => boolean): number[] => {
+      let us = 0;
+      let uo = 0;
+      let sp = 0;
+      for (let i = 0; i < perms.length; i++) {
+        if (without?.(i)) continue;
+        us += t[i].uncommonSensitive;
+        uo += t[i].uncommonOther;
+        sp += t[i].surprisal;
+      }
+      return [Math.log1p(us), Math.log1p(uo), sp];
+    };
+    return { z, terms: termsOf() };
   }
 
   probability(category: string | undefined, permissions: readonly string[]): number {
@@ -87,18 +116,20 @@ export class RiskScorer {
   estimate(category: string | undefined, permissions: readonly string[], prevalence?: number): RiskEstimate {
     const m = this.model;
     const perms = [...new Set(permissions)];
-    const z = this.logOdds(category, perms);
+    const parts = this.parts(category, perms);
+    const z = parts.z();
     const probability = sigmoid(z);
     const base = m.evaluation.baseRate;
+    const zWithout = perms.map((_, i) => parts.z((k) => k === i));
     const whatIf = perms
-      .map((p) => {
-        const without = this.probability(category, perms.filter((q) => q !== p));
+      .map((p, i) => {
+        const without = sigmoid(zWithout[i]);
         return { permission: p, without, change: without - probability };
       })
-      .sort((a, b) => a.change - b.change || a.permission.localeCompare(b.permission));
-    const terms = appTerms(this.baseline, category, perms);
+      .sort((a, b) => a.change - b.change || compareText(a.permission, b.permission));
+    const terms = parts.terms;
     const contributions: RiskEstimate["contributions"] = [
-      ...perms.map((p) => ({ kind: "permission" as const, name: p, description: p, logOdds: z - this.logOdds(category, perms.filter((q) => q !== p)) })),
+      ...perms.map((p, i) => ({ kind: "permission" as const, name: p, description: p, logOdds: z - zWithout[i] })),
       ...TERM_NAMES.map((t, k) => ({ kind: "term" as const, name: t, description: TERM_DESCRIPTIONS[t as TermName], logOdds: m.termWeights[k] * terms[k] })),
     ]
       .filter((c) => c.logOdds > 1e-9)

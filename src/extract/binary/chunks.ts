@@ -115,7 +115,7 @@ export class StringPool {
       } else p += 1;
       checkLimit("MAX_STRING_LENGTH", len, `string ${index} declares a byte length of`);
       if (p + len > this.end) throw r.fail(`string ${index} declares ${len} bytes, past the end of the pool`);
-      return decodeModifiedUtf8(r.bytes.subarray(p, p + len));
+      return shortAscii(r.bytes, p, len, 1) ?? decodeModifiedUtf8(r.bytes.subarray(p, p + len));
     }
     // UTF-16 entries: length in u16 units (one u16, or two when the high bit is set), then the units.
     let len = r.u16(p, "string length");
@@ -126,8 +126,24 @@ export class StringPool {
     }
     checkLimit("MAX_STRING_LENGTH", len, `string ${index} declares a UTF-16 length of`);
     if (p + 2 * len > this.end) throw r.fail(`string ${index} declares ${len} UTF-16 units, past the end of the pool`);
-    return utf16Decoder.decode(r.bytes.subarray(p, p + 2 * len));
+    return shortAscii(r.bytes, p, len, 2) ?? utf16Decoder.decode(r.bytes.subarray(p, p + 2 * len));
   }
+}
+
+/**
+ * A short ASCII string read directly (a decoder call costs more than the string for the short names a
+ * manifest is made of); undefined when any unit is not ASCII, for the decoder to read exactly as before.
+ * `width` is 1 for UTF-8 entries, 2 for UTF-16 (little-endian) ones.
+ */
+function shortAscii(bytes: Uint8Array, at: number, units: number, width: 1 | 2): string | undefined {
+  if (units > 96) return undefined;
+  let out = "";
+  for (let i = 0; i < units; i++) {
+    const lo = bytes[at + i * width];
+    if (lo >= 0x80 || lo === 0 || (width === 2 && bytes[at + i * width + 1] !== 0)) return undefined;
+    out += String.fromCharCode(lo);
+  }
+  return out;
 }
 
 const utf8Decoder = new TextDecoder("utf-8", { fatal: false });

@@ -1,22 +1,21 @@
 /**
- * All archive access lives here (adm-zip underneath), so that the reader can change without touching
- * the decoders. Two entry points: `openArchive` for a random-access source (a file, opened by the ops
- * layer: nothing here touches the file system), `openArchiveBytes` for bytes in memory.
+ * All archive access lives here, so that the reader can change without touching the decoders. Two entry
+ * points: `openArchive` for a random-access source (a file, opened by the ops layer: nothing here touches
+ * the file system), `openArchiveBytes` for bytes in memory.
  *
- * Reading a large APK: adm-zip parses an in-memory buffer. Rather than read a 200 MB file to look at a
- * 3 KB manifest, `openArchive` reads the end-of-central-directory record and the central directory,
- * hands adm-zip just those (with the directory's offset rewritten to 0), and reads an entry's local
- * header and data from the file itself when asked. Time and memory follow what is read, not the file size.
- *
- * adm-zip also builds a full header object for every directory record, which we measured at tens of
- * microseconds each; APKs carry thousands of entries. A caller that needs only some entries names them
- * (`only`), and one pass over the directory keeps just those records for adm-zip to parse.
+ * Reading an APK: rather than read a 200 MB file to look at a 3 KB manifest, `openArchive` reads the
+ * end-of-central-directory record and the central directory, parses the records itself, and reads an
+ * entry's local header and data from the file when asked. Time and memory follow what is read, not the
+ * file size. A caller that needs only some entries names them (`only`), and the one pass over the
+ * directory keeps just those records. (adm-zip, which built a header object per record at tens of
+ * microseconds each, now reads only zip64 archives, which APKs rarely are.)
  *
  * Inflation is ours, not adm-zip's: it would inflate a zip bomb in full, so every entry is checked
  * against its declared size and a named limit first, and inflated with a hard output cap.
  */
 import { crc32, inflateRawSync } from "node:zlib";
-import AdmZip from "adm-zip";
+import { createRequire } from "node:module";
+import type AdmZipNs from "adm-zip";
 import { ArchiveError, InputError, LimitError } from "../../errors.js";
 import { LIMITS, type LimitName } from "../../limits.js";
 
@@ -156,20 +155,11 @@ function openSource(src: Source, only: EntryFilter | undefined, whole?: Buffer):
     }
     const eocdAt = tailStart + eocd;
     if (cdOffset + cdSize > eocdAt) throw new ArchiveError(`central directory (${cdSize} bytes at ${cdOffset}) overlaps its end record at ${eocdAt}`);
-    // The record count is checked on the raw directory, before adm-zip builds an object per record.
+    // The record count is checked on the raw directory as it is parsed.
     const names = only === undefined || typeof only === "function" ? undefined : new Set(only);
     const keep = only === undefined ? () => true : typeof only === "function" ? only : (n: string) => names!.has(n);
-    const { records, count } = selectRecords(src.slice(cdOffset, cdSize), keep);
-    if (count > 0xffff) throw new ArchiveError(`archive lists ${count} entries in a directory without zip64 records, which hold at most 65535`);
-    // [central directory][end record], the end record pointing at offset 0 and without its comment.
-    const end = Buffer.alloc(EOCD_SIZE);
-    tail.copy(end, 0, eocd, eocd + EOCD_SIZE);
-    end.writeUInt16LE(count, 8);
-    end.writeUInt16LE(count, 10);
-    end.writeUInt32LE(records.length, 12);
-    end.writeUInt32LE(0, 16);
-    end.writeUInt16LE(0, 20);
-    return new AdmArchive(Buffer.concat([records, end]), () => src.close(), src);
+    const records = selectRecords(src.slice(cdOffset, cdSize), keep);
+    return new DirectoryArchive(records, () => src.close(), src);
   } catch (e) {
     try { src.close(); } catch { /* already closed */ }
     throw e;
@@ -179,24 +169,71 @@ function openSource(src: Source, only: EntryFilter | undefined, whole?: Buffer):
 const CENTRAL_SIGNATURE = 0x02014b50;
 const CENTRAL_HEADER_SIZE = 46;
 
+/** A central directory record as read: the entry's fields, its flags and where its local header is. */
+interface DirectoryRecord extends ArchiveEntryInfo {
+  flags: number;
+  offset: number;
+}
+
 /**
- * Keeps the central directory records whose names `keep` accepts, in one pass over the directory,
- * counting every record against MAX_ARCHIVE_ENTRIES as it goes.
+ * Parses the central directory records whose names `keep` accepts, in one pass over the directory,
+ * counting every record against MAX_ARCHIVE_ENTRIES as it goes. Sizes and offsets of 0xffffffff are
+ * read from the record's zip64 extra field (id 1), in the order the format gives them.
  */
-function selectRecords(cd: Buffer, keep: (name: string) => boolean): { records: Buffer; count: number } {
-  const kept: Buffer[] = [];
+function selectRecords(cd: Buffer, keep: (name: string) => boolean): DirectoryRecord[] {
+  const kept: DirectoryRecord[] = [];
   let seen = 0;
   for (let p = 0; p + CENTRAL_HEADER_SIZE <= cd.length; ) {
     if (cd.readUInt32LE(p) !== CENTRAL_SIGNATURE) throw new ArchiveError(`central directory is damaged at byte ${p} of ${cd.length}`);
     if (++seen > LIMITS.MAX_ARCHIVE_ENTRIES) throw new LimitError("MAX_ARCHIVE_ENTRIES", seen, LIMITS.MAX_ARCHIVE_ENTRIES, "archive has an entry count of at least");
     // Central header: file name length (u16 at 28), extra field length (u16 at 30), comment length (u16 at 32).
     const nameLen = cd.readUInt16LE(p + 28);
-    const next = p + CENTRAL_HEADER_SIZE + nameLen + cd.readUInt16LE(p + 30) + cd.readUInt16LE(p + 32);
+    const extraLen = cd.readUInt16LE(p + 30);
+    const next = p + CENTRAL_HEADER_SIZE + nameLen + extraLen + cd.readUInt16LE(p + 32);
     if (next > cd.length) throw new ArchiveError(`central directory record at byte ${p} runs past the directory's end`);
-    if (keep(cd.toString("utf8", p + CENTRAL_HEADER_SIZE, p + CENTRAL_HEADER_SIZE + nameLen))) kept.push(cd.subarray(p, next));
+    const name = cd.toString("utf8", p + CENTRAL_HEADER_SIZE, p + CENTRAL_HEADER_SIZE + nameLen);
+    if (keep(name)) {
+      // Central header: flags (u16 at 8), method (u16 at 10), crc-32 (u32 at 16), compressed size (u32 at
+      // 20), uncompressed size (u32 at 24), local header offset (u32 at 42).
+      const m = cd.readUInt16LE(p + 10);
+      const r: DirectoryRecord = {
+        name,
+        method: m === 0 ? "stored" : m === 8 ? "deflated" : `method-${m}`,
+        compressedSize: cd.readUInt32LE(p + 20),
+        size: cd.readUInt32LE(p + 24),
+        crc: cd.readUInt32LE(p + 16),
+        flags: cd.readUInt16LE(p + 8),
+        offset: cd.readUInt32LE(p + 42),
+      };
+      if (r.size === 0xffffffff || r.compressedSize === 0xffffffff || r.offset === 0xffffffff) zip64Fields(cd, p + CENTRAL_HEADER_SIZE + nameLen, extraLen, r);
+      kept.push(r);
+    }
     p = next;
   }
-  return { records: kept.length === 1 ? kept[0] : Buffer.concat(kept), count: kept.length };
+  return kept;
+}
+
+/** Reads a record's zip64 extra field: the 8-byte values of the fields that are 0xffffffff, in order. */
+function zip64Fields(cd: Buffer, at: number, length: number, r: DirectoryRecord): void {
+  for (let q = at; q + 4 <= at + length; ) {
+    const id = cd.readUInt16LE(q);
+    const size = cd.readUInt16LE(q + 2);
+    if (q + 4 + size > at + length) break;
+    if (id === 0x0001) {
+      let v = q + 4;
+      const take = () => {
+        if (v + 8 > q + 4 + size) throw new ArchiveError(`${r.name}: zip64 extra field is too short`);
+        const n = Number(cd.readBigUInt64LE(v));
+        v += 8;
+        return n;
+      };
+      if (r.size === 0xffffffff) r.size = take();
+      if (r.compressedSize === 0xffffffff) r.compressedSize = take();
+      if (r.offset === 0xffffffff) r.offset = take();
+      return;
+    }
+    q += 4 + size;
+  }
 }
 
 function readFully(src: RandomAccessSource, buf: Buffer, offset: number, length: number, position: number): void {
@@ -215,20 +252,94 @@ function findEocd(buf: Buffer): number {
   return -1;
 }
 
-type AdmEntry = ReturnType<AdmZip["getEntries"]>[number];
+/** An archive read by its (selected) central directory records; entry data comes from the source. */
+class DirectoryArchive implements ArchiveReader {
+  readonly notes: string[] = [];
+  private readonly byName = new Map<string, DirectoryRecord>();
+
+  constructor(
+    private readonly records: DirectoryRecord[],
+    private readonly onClose: () => void,
+    private readonly file: Source,
+  ) {
+    for (const r of records) {
+      // Two entries of one name: which one a reader takes is up to the reader, so neither is trusted.
+      if (this.byName.has(r.name)) {
+        onClose();
+        throw new ArchiveError(`archive declares the same entry twice (${r.name}); refusing an ambiguous archive`);
+      }
+      this.byName.set(r.name, r);
+    }
+  }
+
+  entries(): ArchiveEntryInfo[] {
+    return this.records.map(({ name, method, compressedSize, size, crc }) => ({ name, method, compressedSize, size, crc }));
+  }
+
+  read(name: string, limit: LimitName): Uint8Array {
+    const r = this.byName.get(name);
+    if (!r) throw new ArchiveError(`no ${name} in archive`);
+    return readEntry(r, limit, this.notes, (i) => readLocalEntry(this.file, r.offset, i, name, this.notes), r.flags);
+  }
+
+  close(): void {
+    this.onClose();
+  }
+}
+
+/**
+ * Reads and checks one entry: declared sizes and ratio against the limit, then inflation with a hard
+ * output cap, then size and CRC against the central directory (what the platform's zip reader trusts;
+ * where an entry's other fields disagree with it, we read it the same way and say so).
+ */
+function readEntry(i: ArchiveEntryInfo, limit: LimitName, notes: string[], compressedOf: (i: ArchiveEntryInfo) => Buffer, flags: number): Uint8Array {
+  const name = i.name;
+  const allowed = LIMITS[limit];
+  if (i.size > allowed) throw new LimitError(limit, i.size, allowed, `${name} declares an uncompressed size of`);
+  if (i.compressedSize > allowed) throw new LimitError(limit, i.compressedSize, allowed, `${name} declares a compressed size of`);
+  if (i.method === "deflated" && i.compressedSize > 0 && i.size / i.compressedSize > LIMITS.MAX_COMPRESSION_RATIO) {
+    throw new LimitError("MAX_COMPRESSION_RATIO", Math.round(i.size / i.compressedSize), LIMITS.MAX_COMPRESSION_RATIO, `${name} declares a compression ratio of`);
+  }
+  if (flags & 0x1) notes.push(`${name} is marked encrypted in the archive but is read as plain, as Android reads it`);
+  let compressed: Buffer;
+  try {
+    compressed = compressedOf(i);
+  } catch (err) {
+    throw admError(err, name);
+  }
+  let data: Buffer;
+  if (i.method === "stored") data = compressed;
+  else if (i.method === "deflated") {
+    try {
+      // Cap the output one byte past the limit: an entry that lies about its size stops there.
+      data = inflateRawSync(compressed, { maxOutputLength: Math.min(allowed, i.size) + 1 });
+    } catch (err) {
+      if (err instanceof RangeError || (err as { code?: string }).code === "ERR_BUFFER_TOO_LARGE") {
+        throw new ArchiveError(`${name} inflates past its declared ${i.size} bytes (a zip bomb, or a damaged entry)`);
+      }
+      throw new ArchiveError(`${name} cannot be inflated (${(err as Error).message})`);
+    }
+  } else throw new ArchiveError(`${name} uses compression ${i.method}, which Android does not read`);
+  if (data.length !== i.size) throw new ArchiveError(`${name} holds ${data.length} bytes but its header declares ${i.size}`);
+  const crc = crc32(data) >>> 0;
+  if (crc !== i.crc) throw new ArchiveError(`${name} fails its CRC check (0x${crc.toString(16)} read, 0x${i.crc.toString(16)} declared)`);
+  return new Uint8Array(data.buffer, data.byteOffset, data.byteLength);
+}
+
+type AdmEntry = ReturnType<AdmZipNs["getEntries"]>[number];
 
 class AdmArchive implements ArchiveReader {
   readonly notes: string[] = [];
-  private readonly zip: AdmZip;
+  private readonly zip: AdmZipNs;
   private readonly list: AdmEntry[];
 
   constructor(
     buf: Buffer,
     private readonly onClose: () => void,
-    /** When set, `buf` holds only the central directory and entry data is read from this source. */
-    private readonly file?: Source,
   ) {
     try {
+      // Loaded for zip64 archives only (createRequire: a command that never meets one never loads it).
+      const AdmZip = createRequire(import.meta.url)("adm-zip") as typeof AdmZipNs;
       this.zip = new AdmZip(buf, { readEntries: true } as never);
       this.list = this.zip.getEntries();
     } catch (e) {
@@ -246,42 +357,9 @@ class AdmArchive implements ArchiveReader {
   }
 
   read(name: string, limit: LimitName): Uint8Array {
-    const matches = this.list.filter((e) => e.entryName === name);
-    if (matches.length === 0) throw new ArchiveError(`no ${name} in archive`);
-    const e = matches[0];
-    const i = info(e);
-    const allowed = LIMITS[limit];
-    if (i.size > allowed) throw new LimitError(limit, i.size, allowed, `${name} declares an uncompressed size of`);
-    if (i.compressedSize > allowed) throw new LimitError(limit, i.compressedSize, allowed, `${name} declares a compressed size of`);
-    if (i.method === "deflated" && i.compressedSize > 0 && i.size / i.compressedSize > LIMITS.MAX_COMPRESSION_RATIO) {
-      throw new LimitError("MAX_COMPRESSION_RATIO", Math.round(i.size / i.compressedSize), LIMITS.MAX_COMPRESSION_RATIO, `${name} declares a compression ratio of`);
-    }
-    // The central directory is what the platform's zip reader trusts; where an entry's other fields
-    // disagree with it, we read it the same way and say so.
-    if (e.header.flags & 0x1) this.notes.push(`${name} is marked encrypted in the archive but is read as plain, as Android reads it`);
-    let compressed: Buffer;
-    try {
-      compressed = this.file ? readLocalEntry(this.file, e.header.offset, i, name, this.notes) : e.getCompressedData();
-    } catch (err) {
-      throw admError(err, name);
-    }
-    let data: Buffer;
-    if (i.method === "stored") data = compressed;
-    else if (i.method === "deflated") {
-      try {
-        // Cap the output one byte past the limit: an entry that lies about its size stops there.
-        data = inflateRawSync(compressed, { maxOutputLength: Math.min(allowed, i.size) + 1 });
-      } catch (err) {
-        if (err instanceof RangeError || (err as { code?: string }).code === "ERR_BUFFER_TOO_LARGE") {
-          throw new ArchiveError(`${name} inflates past its declared ${i.size} bytes (a zip bomb, or a damaged entry)`);
-        }
-        throw new ArchiveError(`${name} cannot be inflated (${(err as Error).message})`);
-      }
-    } else throw new ArchiveError(`${name} uses compression ${i.method}, which Android does not read`);
-    if (data.length !== i.size) throw new ArchiveError(`${name} holds ${data.length} bytes but its header declares ${i.size}`);
-    const crc = crc32(data) >>> 0;
-    if (crc !== i.crc) throw new ArchiveError(`${name} fails its CRC check (0x${crc.toString(16)} read, 0x${i.crc.toString(16)} declared)`);
-    return new Uint8Array(data.buffer, data.byteOffset, data.byteLength);
+    const e = this.list.find((x) => x.entryName === name);
+    if (!e) throw new ArchiveError(`no ${name} in archive`);
+    return readEntry(info(e), limit, this.notes, () => e.getCompressedData(), e.header.flags);
   }
 
   close(): void {

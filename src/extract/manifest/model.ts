@@ -159,5 +159,13 @@ export interface Manifest {
 
 /** The distinct permissions a manifest requests (after tools:node="remove"), sorted. */
 export function requestedPermissionNames(m: Manifest): string[] {
-  return [...new Set(m.usesPermissions.filter((p) => !p.removedByTools).map((p) => p.name))].sort();
+  // Asked for many times per app (every check, the risk model, the row): computed once per manifest.
+  let names = requestedCache.get(m);
+  if (!names || names.source !== m.usesPermissions || names.count !== m.usesPermissions.length) {
+    names = { source: m.usesPermissions, count: m.usesPermissions.length, list: [...new Set(m.usesPermissions.filter((p) => !p.removedByTools).map((p) => p.name))].sort() };
+    requestedCache.set(m, names);
+  }
+  return names.list.slice();
 }
+
+const requestedCache = new WeakMap<Manifest, { source: Manifest["usesPermissions"]; count: number; list: string[] }>();

@@ -3,7 +3,8 @@
  * file): the manifest of an app bundle module, or of an `aapt2 link --proto-format` build. Bytes in, the
  * same XmlDocument as the binary and plain readers out; the manifest model is then built as for them.
  */
-import protobuf from "protobufjs";
+import { createRequire } from "node:module";
+import type protobufNs from "protobufjs";
 import { ProtoXmlError } from "../../errors.js";
 import { RESOURCES_PROTO_DESCRIPTOR } from "./generated/descriptor.js";
 import { LIMITS } from "../../limits.js";
@@ -12,11 +13,13 @@ import { typedValue, type TypedValue } from "../binary/values.js";
 import { ANDROID_ATTRIBUTE_NAMES } from "../../platform/android-attributes.js";
 import { ANDROID_NS, adoptChild, type XmlAttribute, type XmlDocument, type XmlElement } from "../xml-tree.js";
 
-let root: protobuf.Root | undefined;
+let root: protobufNs.Root | undefined;
 
-function protoType(name: string): protobuf.Type {
-  // The descriptor is generated from resources.proto at build time (scripts/gen.mjs).
-  root ??= protobuf.Root.fromJSON(RESOURCES_PROTO_DESCRIPTOR as protobuf.INamespace);
+function protoType(name: string): protobufNs.Type {
+  // The descriptor is generated from resources.proto at build time (scripts/gen.mjs). protobufjs is loaded
+  // on the first protobuf manifest only: most inputs are binary XML, and a command starts faster without it.
+  const protobuf = createRequire(import.meta.url)("protobufjs") as typeof protobufNs;
+  root ??= protobuf.Root.fromJSON(RESOURCES_PROTO_DESCRIPTOR as protobufNs.INamespace);
   return root.lookupType(`overask.aapt.${name}`);
 }
 

@@ -9,7 +9,6 @@ import type { Policy } from "../../score/policy/policy.js";
 import type { Level } from "../../score/types.js";
 import { failedRow, rowOf, type AppRow } from "../../score/row.js";
 import { judgeFile } from "../check.js";
-import { readManifestFile } from "../read-manifest.js";
 
 export interface SweepInput {
   /** The path as listed (relative to the sweep root, or as given). */
@@ -72,8 +71,7 @@ const ACCESS_PROBLEM = /^(no such file|permission denied|is not a regular file)/
  */
 export function scoreInput(judge: Judge, input: SweepInput, options: JudgeOptions, readCode = true, host?: string): AppRow {
   try {
-    const m = readManifestFile(input.file, { resolveResources: false });
-    return rowOf(input, judgeFile(judge, input.file, { ...(input.category ? { ...options, category: input.category } : options), readCode }, m));
+    return rowOf(input, judgeFile(judge, input.file, { ...(input.category ? { ...options, category: input.category } : options), readCode }, undefined, { resolveResources: false }));
   } catch (e) {
     if (e instanceof InputError) {
       const message = e.detail();

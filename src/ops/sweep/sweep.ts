@@ -5,6 +5,7 @@
  * the same rows, in the order they finished. `--resume` keeps the rows of unchanged inputs (same size and
  * modification time) and sweeps the rest. The HTML report, when asked for, is written from the output.
  */
+import { compareText } from "../../util/compare.js";
 import { closeSync, existsSync, openSync, writeSync } from "node:fs";
 import { InputError, OutputError } from "../../errors.js";
 import { csvHeader } from "../../report/csv.js";
@@ -71,7 +72,7 @@ export class Tally {
     const last = this.top[this.top.length - 1];
     if (this.top.length < TOP || r.risk > last.risk || (r.risk === last.risk && r.id < last.id)) {
       this.top.push({ id: r.id, ...(r.package ? { package: r.package } : {}), risk: r.risk, ...(r.band ? { band: r.band } : {}) });
-      this.top.sort((x, y) => y.risk - x.risk || x.id.localeCompare(y.id));
+      this.top.sort((x, y) => y.risk - x.risk || compareText(x.id, y.id));
       if (this.top.length > TOP) this.top.pop();
     }
   }
