@@ -187,4 +187,29 @@ describe("overask sweep", () => {
     expect(plain.find((r) => r.id.endsWith("beamtorch-code.apk")).findings.some((f: { checkId: string }) => f.checkId === "not-seen-in-code")).toBe(false);
     expect(withCode.findings.filter((f: { checkId: string }) => f.checkId === "not-seen-in-code").map((f: { subject: string }) => f.subject).sort()).toEqual(withCode.code.notSeen);
   });
+
+  it("writes for each app the same judgement `check --format json` gives for the same file", async () => {
+    const dir = inventory("same-as-check");
+    const out = join(base, "same-as-check.jsonl");
+    await cli(["sweep", dir, "-o", out, "-b", DEMO, "-j", "2"]);
+    const rows = readFileSync(out, "utf8").trim().split("\n").map((l) => JSON.parse(l)).filter((r) => r.status === "scored");
+    expect(rows.length).toBeGreaterThan(10);
+    for (const row of rows) {
+      const { stdout } = await cli(["check", "-f", "json", "-b", DEMO, join(dir, row.id)]);
+      const c = JSON.parse(stdout).results[0];
+      expect(row.package, row.id).toBe(c.package);
+      expect(row.versionCode).toBe(c.versionCode);
+      expect(row.risk).toBe(c.risk?.probability);
+      expect(row.band).toBe(c.risk?.band);
+      // A row's message folds in the other reasons for the same subject (`also`), which check's JSON lists apart.
+      type Also = { checkId: string; message: string };
+      const message = (f: { message: string; also?: Also[] }) => [f.message, ...(f.also ?? []).map((a) => `also (${a.checkId}): ${a.message}`)].join(" ");
+      expect(row.findings).toEqual(c.findings.map((f: { checkId: string; level: string; subject: string; message: string; also?: Also[] }) => ({ checkId: f.checkId, level: f.level, subject: f.subject, message: message(f) })));
+      expect(row.whatIf).toEqual((c.risk?.whatIf ?? []).filter((w: { change: number }) => w.change < 0).slice(0, 5).map((w: { permission: string; without: number }) => ({ permission: w.permission, without: w.without })));
+      if (c.code) {
+        const by = (s: string) => c.code.permissions.filter((p: { status: string }) => p.status === s).map((p: { permission: string }) => p.permission).sort();
+        expect(row.code).toEqual({ used: by("used"), notSeen: by("not-seen"), notMappable: by("not-mappable"), libraryOnly: c.code.permissions.filter((p: { onlyLibraries: boolean }) => p.onlyLibraries).map((p: { permission: string }) => p.permission).sort(), problems: c.code.problems });
+      } else expect(row.code).toBeUndefined();
+    }
+  }, 120_000);
 });
