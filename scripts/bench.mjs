@@ -22,7 +22,7 @@ const REPS = Number(opt("reps", "41"));
 const OUT = join(ROOT, "bench-out");
 mkdirSync(OUT, { recursive: true });
 
-const ONLY = opt("only", "extract,learn,check,sweep,code").split(",");
+const ONLY = opt("only", "extract,learn,check,sweep,queue,code").split(",");
 const median = (xs) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 const ms = (t0) => Number(process.hrtime.bigint() - t0) / 1e6;
 const fmt = (x) => (x < 10 ? x.toFixed(3) : x.toFixed(1));
@@ -363,6 +363,40 @@ if (ONLY.includes("sweep")) {
       console.log(`aapt dump permissions (2 at a time, 300-app sample): ${Math.round(aaptRate).toLocaleString("en")} apps/s; sweep -j 2 is ${(withCode.rate / aaptRate).toFixed(1)}x its throughput`);
     }
   }
+}
+
+// ---------------------------------------------------------------------------------------------
+const hasRedis = spawnSync("redis-server", ["--version"], { stdio: "ignore" }).error === undefined;
+if (ONLY.includes("queue") && !hasRedis) console.log("\n## queue: skipped (needs Debian's redis-server)");
+if (ONLY.includes("queue") && hasRedis) {
+  // One producer (sweep --queue) and 1 or 2 worker processes (overask work -j 1) on this machine, against a
+  // local sweep of the same inputs; Redis is Debian's redis-server on 127.0.0.1 with no persistence.
+  const COUNT = Number(opt("queue-apps", "5000"));
+  const dir = join(OUT, `queue-${COUNT}`);
+  if (!existsSync(dir)) {
+    mkdirSync(dir, { recursive: true });
+    for (let i = 0; i < COUNT; i++) copyFileSync(join(ROOT, "fixtures/apk/tidewatch.apk"), join(dir, `app-${String(i).padStart(5, "0")}.apk`));
+  }
+  header(`queue: ${COUNT.toLocaleString("en")} small APKs through Redis (BullMQ), 1 producer and 1 or 2 worker processes`);
+  const port = 20000 + Math.floor(Math.random() * 20000);
+  const redis = spawn("redis-server", ["--bind", "127.0.0.1", "--port", String(port), "--save", "", "--appendonly", "no"], { stdio: "ignore" });
+  await new Promise((r) => setTimeout(r, 500));
+  const bin = join(ROOT, "bin/overask.js");
+  const out = join(OUT, "queue-results.jsonl");
+  const local = spawnSync("/usr/bin/time", ["-f", "%e", process.execPath, bin, "sweep", dir, "-o", out, "-j", "2", "-c", "TOOLS"], { encoding: "utf8" });
+  const localS = Number(local.stderr.trim().split("\n").pop());
+  console.log(`local sweep -j 2: ${localS.toFixed(2)} s, ${Math.round(COUNT / localS).toLocaleString("en")} apps/s`);
+  for (const workers of [1, 2]) {
+    const url = `redis://127.0.0.1:${port}/bench${workers}`;
+    const procs = Array.from({ length: workers }, () => spawn(process.execPath, [bin, "work", url, "-j", "1", "--drain"], { stdio: "ignore" }));
+    const t = process.hrtime.bigint();
+    const r = spawnSync(process.execPath, [bin, "sweep", dir, "-o", out, "-c", "TOOLS", "--queue", url], { encoding: "utf8" });
+    const seconds = ms(t) / 1000;
+    await Promise.all(procs.map((p) => new Promise((res) => (p.exitCode !== null ? res() : p.on("exit", res)))));
+    const rows = readFileSync(out, "utf8").trim().split("\n").length;
+    console.log(`sweep --queue, ${workers} worker process${workers === 1 ? "" : "es"}: ${seconds.toFixed(2)} s, ${Math.round(COUNT / seconds).toLocaleString("en")} apps/s (${rows} rows; exit ${r.status}) = ${(localS / seconds).toFixed(2)}x the local sweep's throughput`);
+  }
+  redis.kill();
 }
 
 // ---------------------------------------------------------------------------------------------

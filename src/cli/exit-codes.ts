@@ -11,7 +11,7 @@ export const EXIT_CODES = [
     code: 3,
     help: "an input could not be read (the others were still reported)",
     meaning:
-      "at least one input could not be read (a file, a corpus over its reject limit, a baseline of another schema version; for `sweep`, an app in the inventory, or an inventory with nothing to sweep); the others were still reported, and the error was printed as one line naming the file",
+      "at least one input could not be read (a file, a corpus over its reject limit, a baseline of another schema version; for `sweep`, an app in the inventory, or an inventory with nothing to sweep; for `sweep --queue` and `work`, a queue that cannot be reached or a worker whose baseline is not the producer's); the others were still reported, and the error was printed as one line naming the file",
   },
   { name: "INTERNAL", code: 4, help: "internal error (rerun with --debug)", meaning: "an internal error in overask; rerun with `--debug` for the stack trace and report it" },
   { name: "OUTPUT", code: 5, help: "an output could not be written", meaning: "an output could not be written (missing or read-only folder, full disk); an existing file is left as it was" },

@@ -13,7 +13,7 @@ export interface WorkCliOptions {
 }
 
 /** Jobs each thread runs at once: their Redis round trips overlap while one is judged. */
-const IN_FLIGHT = 4;
+const IN_FLIGHT = 16;
 
 export async function workCommand(url: string, o: WorkCliOptions, io: Io): Promise<number> {
   const address = parseQueueAddress(url, process.env);
