@@ -45,13 +45,25 @@ export interface XmlDocument {
 // Per-parent counts of children by name, so that building a path costs O(1) even under the
 // framework manifest's <manifest>, which has thousands of children.
 const siblingCounts = new WeakMap<XmlElement, Map<string, number>>();
+/** Parents with fewer children count them by a scan; larger ones keep a map of counts. */
+const SCAN_BELOW = 32;
 
 /** Appends `child` to `parent` and gives it its element path. */
 export function adoptChild(parent: XmlElement, child: XmlElement): void {
-  let counts = siblingCounts.get(parent);
-  if (!counts) siblingCounts.set(parent, (counts = new Map()));
-  const n = (counts.get(child.name) ?? 0) + 1;
-  counts.set(child.name, n);
+  const siblings = parent.children;
+  let n = 1;
+  if (siblings.length < SCAN_BELOW) {
+    // Few children (nearly every element): counting them is cheaper than keeping a map.
+    for (const s of siblings) if (s.name === child.name) n++;
+  } else {
+    let counts = siblingCounts.get(parent);
+    if (!counts) {
+      siblingCounts.set(parent, (counts = new Map()));
+      for (const s of siblings) counts.set(s.name, (counts.get(s.name) ?? 0) + 1);
+    }
+    n = (counts.get(child.name) ?? 0) + 1;
+    counts.set(child.name, n);
+  }
   child.path = `${parent.path}/${child.name}${n > 1 ? `[${n}]` : ""}`;
   parent.children.push(child);
 }

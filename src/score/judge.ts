@@ -12,7 +12,7 @@ import { chooseCategory, type CategoryChoice } from "./category.js";
 import { isOwnPermission, judgeFrequency } from "./frequency.js";
 import { evaluatePolicy, type Policy } from "./policy/policy.js";
 import { CHECKS, checkIdsTagged } from "./registry.js";
-import { RiskScorer, type RiskEstimate } from "./risk.js";
+import { CACHE_LIMIT, RiskScorer, type RiskEstimate } from "./risk.js";
 import { levelRank, type Finding, type Level } from "./types.js";
 
 /** A requested permission that frequency does not judge, and why. */
@@ -65,7 +65,11 @@ export class Judge {
   rate(category: string | undefined, permission: string): PermissionRate {
     const key = `${category ?? ""}\u0000${permission}`;
     let r = this.rates.get(key);
-    if (!r) this.rates.set(key, (r = this.baseline.rate(category, permission)));
+    if (!r) {
+      // Bounded: a sweep of many apps meets endless custom permission names.
+      if (this.rates.size >= CACHE_LIMIT) this.rates.clear();
+      this.rates.set(key, (r = this.baseline.rate(category, permission)));
+    }
     return r;
   }
 

@@ -8,7 +8,7 @@
 import { compareText } from "../util/compare.js";
 import { percentileOf } from "../baseline/atypicality.js";
 import type { BaselineFile, StoredModel } from "../baseline/baseline-file.js";
-import { permissionTerms, TERM_DESCRIPTIONS, TERM_NAMES, type TermName } from "../baseline/features.js";
+import { permissionTerms, TERM_DESCRIPTIONS, TERM_NAMES, type PermissionTerms, type TermName } from "../baseline/features.js";
 import type { Baseline } from "../baseline/rates.js";
 
 
@@ -42,6 +42,9 @@ export interface RiskEstimate {
 export { bandCutPoints, bandOf, type Band } from "../baseline/bands.js";
 import { bandCutPoints, bandOf, type Band } from "../baseline/bands.js";
 
+/** Most entries a per-permission cache keeps before starting afresh. */
+export const CACHE_LIMIT = 100_000;
+
 const logit = (p: number) => Math.log(p / (1 - p));
 const sigmoid = (z: number) => 1 / (1 + Math.exp(-z));
 
@@ -69,6 +72,19 @@ export class RiskScorer {
     this.cuts = bandCutPoints(model);
   }
 
+  /** A permission's category terms, looked up once per category (bounded: a sweep meets endless custom names). */
+  private termsOf(category: string | undefined, permission: string): PermissionTerms {
+    const key = `${category ?? ""}\u0000${permission}`;
+    let t = this.termsCache.get(key);
+    if (!t) {
+      if (this.termsCache.size >= CACHE_LIMIT) this.termsCache.clear();
+      this.termsCache.set(key, (t = permissionTerms(this.baseline, category, permission)));
+    }
+    return t;
+  }
+
+  private readonly termsCache = new Map<string, PermissionTerms>();
+
   /** Log-odds of an app in `category` requesting `permissions`. */
   logOdds(category: string | undefined, permissions: readonly string[]): number {
     const perms = [...new Set(permissions)];
@@ -86,7 +102,7 @@ export class RiskScorer {
       const j = this.index.get(p);
       return j === undefined ? undefined : m.permissionWeights[j];
     });
-    const t = perms.map((p) => permissionTerms(this.baseline, category, p));
+    const t = perms.map((p) => this.termsOf(category, p));
     const z = (without?: (i: number) => boolean): number => {
       let sum = m.intercept;
       for (let i = 0; i < perms.length; i++) if (weight[i] !== undefined && !without?.(i)) sum += weight[i]!;

@@ -20,6 +20,12 @@ export function wilsonInterval(k: number, n: number, confidence = 0.95): { lower
   return { lower: Math.max(0, centre - half), upper: Math.min(1, centre + half) };
 }
 
+/** Acklam's coefficients (central region a/b, tails c/d). */
+const ACKLAM_A = [-3.969683028665376e1, 2.209460984245205e2, -2.759285104469687e2, 1.38357751867269e2, -3.066479806614716e1, 2.506628277459239];
+const ACKLAM_B = [-5.447609879822406e1, 1.615858368580409e2, -1.556989798598866e2, 6.680131188771972e1, -1.328068155288572e1];
+const ACKLAM_C = [-7.784894002430293e-3, -3.223964580411365e-1, -2.400758277161838, -2.549732539343734, 4.374664141464968, 2.938163982698783];
+const ACKLAM_D = [7.784695709041462e-3, 3.224671290700398e-1, 2.445134137142996, 3.754408661907416];
+
 /**
  * Quantile of the standard normal distribution (inverse CDF), by Acklam's rational approximation
  * (relative error below 1.15e-9; common practice). Not simple-statistics' `probit`, whose approximation
@@ -30,10 +36,7 @@ export function wilsonInterval(k: number, n: number, confidence = 0.95): { lower
  */
 export function normalQuantile(p: number): number {
   if (!(p > 0 && p < 1)) throw new RangeError(`normalQuantile needs 0 < p < 1 (p=${p})`);
-  const a = [-3.969683028665376e1, 2.209460984245205e2, -2.759285104469687e2, 1.38357751867269e2, -3.066479806614716e1, 2.506628277459239];
-  const b = [-5.447609879822406e1, 1.615858368580409e2, -1.556989798598866e2, 6.680131188771972e1, -1.328068155288572e1];
-  const c = [-7.784894002430293e-3, -3.223964580411365e-1, -2.400758277161838, -2.549732539343734, 4.374664141464968, 2.938163982698783];
-  const d = [7.784695709041462e-3, 3.224671290700398e-1, 2.445134137142996, 3.754408661907416];
+  const [a, b, c, d] = [ACKLAM_A, ACKLAM_B, ACKLAM_C, ACKLAM_D];
   const lo = 0.02425;
   let x: number;
   if (p < lo) {

@@ -52,12 +52,16 @@ export async function runPool(inputs: SweepInput[], options: PoolOptions, done: 
       if (err) reject(err);
       else resolve();
     };
+    // Each worker has up to two batches in hand, so that it never waits for the next one to arrive.
+    const inHand = new Map<Worker, number>();
     const feed = (w: Worker) => {
       if (next >= inputs.length) {
+        if ((inHand.get(w) ?? 0) > 0) return;
         running--;
         if (running === 0) finish();
         return;
       }
+      inHand.set(w, (inHand.get(w) ?? 0) + 1);
       const size = Math.max(1, Math.min(BATCH, Math.ceil((inputs.length - next) / (4 * workers.length))));
       w.postMessage(inputs.slice(next, next + size));
       next += size;
@@ -67,6 +71,7 @@ export async function runPool(inputs: SweepInput[], options: PoolOptions, done: 
     for (const w of workers) {
       running++;
       w.on("message", (rows: ScoredLine[]) => {
+        inHand.set(w, inHand.get(w)! - 1);
         try {
           done(rows);
         } catch (e) {
@@ -78,5 +83,6 @@ export async function runPool(inputs: SweepInput[], options: PoolOptions, done: 
       w.on("error", (e) => finish(e));
     }
     for (const w of workers) feed(w);
+    for (const w of workers) if (next < inputs.length) feed(w);
   });
 }
