@@ -27,7 +27,7 @@ export interface DexFieldRef {
 export interface DexClass {
   descriptor: string;
   superclass?: string;
-  /** Indices into `methods`, `fields` and `strings` that this class's code uses (sorted, unique). */
+  /** Indices into `methods`, `fields` and `strings` that this class's code uses (unique, in the order the code first uses them). */
   methodRefs: number[];
   fieldRefs: number[];
   stringRefs: number[];
@@ -72,13 +72,16 @@ const WIDTH = new Uint8Array(256);
 
 function uleb(r: ByteReader, at: { p: number }, what: string): number {
   const first = r.bytes[at.p];
+  // (Past the end, `first` is undefined: the comparison fails and the checked loop below says so.)
   if (first < 0x80) {
     at.p++;
     return first;
   }
   let v = 0;
+  const bytes = r.bytes;
   for (let shift = 0; shift < 35; shift += 7) {
-    const b = r.u8(at.p++, what);
+    if (at.p >= bytes.length) throw new DexError(`${what}: a ULEB128 value runs past the end of the file at offset ${at.p}`);
+    const b = bytes[at.p++];
     v += (b & 0x7f) * 2 ** shift;
     if (b < 0x80) return v;
   }
@@ -169,8 +172,10 @@ export function readDex(bytes: Uint8Array): DexFile {
     if (i >= strT.size) throw new DexError(`${what} names string ${i}, past the ${strT.size} strings`);
     return stringAt(i);
   };
+  // Each id table lies inside the file (checked by table()): its entries are read directly.
+  const dv = r.view;
   const types = new Array<string>(typeT.size);
-  for (let i = 0; i < typeT.size; i++) types[i] = str(r.u32(typeT.off + 4 * i, "type_id"), "type_id");
+  for (let i = 0; i < typeT.size; i++) types[i] = str(dv.getUint32(typeT.off + 4 * i, true), "type_id");
   const type = (i: number, what: string) => {
     if (i >= types.length) throw new DexError(`${what} names type ${i}, past the ${types.length} types`);
     return types[i];
@@ -178,8 +183,8 @@ export function readDex(bytes: Uint8Array): DexFile {
   const protos = new Array<{ params: string[]; returns: string }>(protoT.size);
   for (let i = 0; i < protoT.size; i++) {
     const base = protoT.off + 12 * i;
-    const returns = type(r.u32(base + 4, "proto return_type_idx"), "proto_id");
-    const listOff = r.u32(base + 8, "proto parameters_off");
+    const returns = type(dv.getUint32(base + 4, true), "proto_id");
+    const listOff = dv.getUint32(base + 8, true);
     const params: string[] = [];
     if (listOff) {
       const n = r.u32(listOff, "type_list size");
@@ -192,14 +197,15 @@ export function readDex(bytes: Uint8Array): DexFile {
   const fields = new Array<DexFieldRef>(fieldT.size);
   for (let i = 0; i < fieldT.size; i++) {
     const base = fieldT.off + 8 * i;
-    fields[i] = { owner: type(r.u16(base, "field class_idx"), "field_id"), type: type(r.u16(base + 2, "field type_idx"), "field_id"), name: str(r.u32(base + 4, "field name_idx"), "field_id") };
+    fields[i] = { owner: type(dv.getUint16(base, true), "field_id"), type: type(dv.getUint16(base + 2, true), "field_id"), name: str(dv.getUint32(base + 4, true), "field_id") };
   }
   const methods = new Array<DexMethodRef>(methodT.size);
   for (let i = 0; i < methodT.size; i++) {
     const base = methodT.off + 8 * i;
-    const protoIdx = r.u16(base + 2, "method proto_idx");
+    const protoIdx = dv.getUint16(base + 2, true);
     if (protoIdx >= protos.length) throw new DexError(`method_id ${i} names proto ${protoIdx}, past the ${protos.length} protos`);
-    methods[i] = { owner: type(r.u16(base, "method class_idx"), "method_id"), name: str(r.u32(base + 4, "method name_idx"), "method_id"), ...protos[protoIdx] };
+    const proto = protos[protoIdx];
+    methods[i] = { owner: type(dv.getUint16(base, true), "method_id"), name: str(dv.getUint32(base + 4, true), "method_id"), params: proto.params, returns: proto.returns };
   }
 
   const classes: DexClass[] = [];
@@ -235,8 +241,7 @@ export function readDex(bytes: Uint8Array): DexFile {
         scanCode(r, codeOff + 16, insns, refs, { strings: strT.size, methods: methods.length, fields: fields.length });
       }
     }
-    const sorted = (s: number[]) => s.sort((a, b) => a - b);
-    classes.push({ descriptor, ...(superIdx !== NO_INDEX ? { superclass: type(superIdx, "class_def superclass") } : {}), methodRefs: sorted(refs.m), fieldRefs: sorted(refs.f), stringRefs: sorted(refs.s) });
+    classes.push({ descriptor, ...(superIdx !== NO_INDEX ? { superclass: type(superIdx, "class_def superclass") } : {}), methodRefs: refs.m, fieldRefs: refs.f, stringRefs: refs.s });
   }
   let all: string[] | undefined;
   return {
