@@ -268,18 +268,17 @@ if (ONLY.includes("learn")) {
 if (ONLY.includes("check")) {
   header("check: one small APK, whole process, against starting node itself");
   const apk = join(ROOT, "fixtures/apk/tidewatch.apk");
-  const runs = (argv) => {
-    const xs = [];
-    for (let i = 0; i < 15; i++) {
+  // Interleaved (floor, check, facts, floor, …) so that the machine's drift hits all three alike; medians of 25.
+  const argvs = [["-e", "0"], [join(ROOT, "bin/overask.js"), "check", apk], [join(ROOT, "bin/overask.js"), "facts", apk]];
+  const times = argvs.map(() => []);
+  for (let i = 0; i < 25; i++) {
+    argvs.forEach((argv, k) => {
       const t = process.hrtime.bigint();
       spawnSync(process.execPath, argv, { stdio: "ignore" });
-      xs.push(ms(t));
-    }
-    return median(xs);
-  };
-  const floor = runs(["-e", "0"]);
-  const check = runs([join(ROOT, "bin/overask.js"), "check", apk]);
-  const facts = runs([join(ROOT, "bin/overask.js"), "facts", apk]);
+      times[k].push(ms(t));
+    });
+  }
+  const [floor, check, facts] = times.map(median);
   console.log(`node -e 0 (floor):        ${fmt(floor)} ms`);
   console.log(`overask check small.apk:  ${fmt(check)} ms (${(check / floor).toFixed(2)}x the floor; goal ≤ 1.8x)`);
   console.log(`overask facts small.apk:  ${fmt(facts)} ms (${(facts / floor).toFixed(2)}x the floor)`);

@@ -9,7 +9,22 @@ import { build } from "esbuild";
 // Start from an empty folder: chunks of earlier builds would pile up (their names are content hashes).
 rmSync("dist/bundle", { recursive: true, force: true });
 
+// commander requires node:child_process when it loads, for subcommands run as separate executables, which
+// overask never uses; loading it costs several milliseconds of every start. commander gets a stand-in that
+// loads the real module on first use.
+const lazyChildProcess = {
+  name: "lazy-child-process",
+  setup(b) {
+    b.onResolve({ filter: /^node:child_process$/ }, (args) => (/node_modules[\\/]commander[\\/]/.test(args.importer) ? { path: "child_process", namespace: "overask-lazy" } : undefined));
+    b.onLoad({ filter: /.*/, namespace: "overask-lazy" }, () => ({
+      contents: 'let real; module.exports = new Proxy({}, { get: (_, key) => (real ??= require("node:child_process"))[key] });',
+      loader: "js",
+    }));
+  },
+};
+
 await build({
+  plugins: [lazyChildProcess],
   entryPoints: { main: "src/cli/main.ts", "sweep-worker": "src/ops/sweep/worker.ts", "queue-worker": "src/ops/queue/thread.ts" },
   outdir: "dist/bundle",
   bundle: true,

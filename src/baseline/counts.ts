@@ -77,6 +77,19 @@ function groupToJson(g: GroupCounts): SerializedGroup {
   return { apps: g.apps, permissions };
 }
 
+/**
+ * A group read back from a baseline file. Its map is built when first asked for: judging an app touches
+ * one category (and the pooled counts), so the other categories' maps are never built.
+ */
 function groupFromJson(g: SerializedGroup): GroupCounts {
-  return { apps: g.apps, permissions: new Map(Object.entries(g.permissions)) };
+  let permissions: Map<string, number> | undefined;
+  return {
+    apps: g.apps,
+    get permissions() {
+      return (permissions ??= new Map(Object.entries(g.permissions)));
+    },
+    set permissions(m: Map<string, number>) {
+      permissions = m;
+    },
+  };
 }
