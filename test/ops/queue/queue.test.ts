@@ -125,6 +125,27 @@ describe.runIf(hasRedis)("sweep --queue on a real Redis with BullMQ", () => {
     client.disconnect();
   }, 60_000);
 
+  it("records a file a worker cannot open as a failed row naming the worker's host", async () => {
+    const dir = inventory("vanishing", 1);
+    const url = redis.url("vanishing");
+    const out = join(base, "vanishing.jsonl");
+    const producer = cli(["sweep", dir, "-o", out, "-b", DEMO, "--queue", url]);
+    const client = new Redis({ host: "127.0.0.1", port: redis.port });
+    const inputs = readdirSync(dir).length;
+    while ((await client.llen("bull:vanishing:wait")) < inputs) await new Promise((r) => setTimeout(r, 20));
+    // Gone from the shared storage after it was listed, before a worker took it.
+    const { rmSync } = await import("node:fs");
+    const { hostname } = await import("node:os");
+    rmSync(join(dir, "0-tidewatch.apk"));
+    const w = startWorker(url, ["--drain"]);
+    const { code } = await producer;
+    expect(code).toBe(EXIT.INPUT);
+    const row = readFileSync(out, "utf8").trim().split("\n").map((l) => JSON.parse(l)).find((r) => r.id === "0-tidewatch.apk");
+    expect(row).toMatchObject({ status: "failed", error: { kind: "InputError", message: `no such file (on worker host ${hostname()})` } });
+    expect(await w.exited).toBe(0);
+    client.disconnect();
+  }, 60_000);
+
   it("stops a worker whose baseline is not the producer's, saying so", async () => {
     const dir = inventory("mismatch", 1);
     const url = redis.url("mismatch");
