@@ -25,9 +25,11 @@ export interface RedisServer {
   stop(): Promise<void>;
 }
 
-export async function startRedis(extra: string[] = []): Promise<RedisServer> {
+/** A redis-server on 127.0.0.1 and a free port; with `mode` "tls", the port is its TLS port (give the TLS options in `extra`). */
+export async function startRedis(extra: string[] = [], mode: "plain" | "tls" = "plain"): Promise<RedisServer> {
   const port = await freePort();
-  const proc: ChildProcess = spawn("redis-server", ["--bind", "127.0.0.1", "--port", String(port), "--save", "", "--appendonly", "no", ...extra], { stdio: ["ignore", "pipe", "pipe"] });
+  const portArgs = mode === "tls" ? ["--tls-port", String(port)] : ["--port", String(port)];
+  const proc: ChildProcess = spawn("redis-server", ["--bind", "127.0.0.1", ...portArgs, "--save", "", "--appendonly", "no", ...extra], { stdio: ["ignore", "pipe", "pipe"] });
   await new Promise<void>((resolve, reject) => {
     let text = "";
     proc.stdout!.on("data", (d: Buffer) => {

@@ -32,6 +32,7 @@ function reason(e: unknown): string {
   if (err.code === "ECONNREFUSED") return "connection refused (is redis-server running there?)";
   if (err.code === "ENOTFOUND" || err.code === "EAI_AGAIN") return "host not found";
   if (/WRONGPASS|NOAUTH|invalid password|AUTH/i.test(err.message ?? "")) return "authentication failed (give the password in the URL or in OVERASK_REDIS_PASSWORD)";
+  if (/CERT|SELF_SIGNED|UNABLE_TO_VERIFY|ERR_TLS_CERT/i.test(err.code ?? "")) return `${err.message} (a private CA is trusted with NODE_EXTRA_CA_CERTS=<its PEM file>)`;
   if (/ECONNRESET|EPROTO|SSL|TLS/i.test(`${err.code ?? ""} ${err.message ?? ""}`)) return `the connection was reset (${err.code ?? err.message}; a TLS server wants rediss://, a plain one redis://)`;
   if (/timeout|ETIMEDOUT/i.test(err.message ?? "")) return `no answer within ${CONNECT_TIMEOUT_MS / 1000} s (a plain server given rediss://, or a firewall)`;
   return (err.message ?? String(e)).split("\n")[0];

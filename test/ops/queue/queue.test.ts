@@ -3,7 +3,7 @@
  * producer (`sweep --queue`) and worker processes (`overask work`). One worker is SIGKILLed mid-run; every
  * input must still appear exactly once, with the same row a local sweep gives. Skipped without redis-server.
  */
-import { spawn, type ChildProcess } from "node:child_process";
+import { execSync, spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { copyFileSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
@@ -16,6 +16,7 @@ import { hasRedis, startRedis, type RedisServer } from "../../helpers/redis.js";
 
 const DEMO = `${ROOT}baselines/harbourview-demo.json`;
 const BIN = `${ROOT}bin/overask.js`;
+const hasOpenssl = spawnSync("openssl", ["version"], { stdio: "ignore" }).error === undefined;
 const base = mkdtempSync(join(tmpdir(), "overask-queue-"));
 
 /** `copies` × every fixture APK, a bundle and a broken file. */
@@ -162,6 +163,34 @@ describe.runIf(hasRedis)("sweep --queue on a real Redis with BullMQ", () => {
     producer.kill("SIGKILL");
     client.disconnect();
   }, 30_000);
+
+  it.runIf(hasOpenssl)("sweeps over TLS (rediss://) with a password, trusting a private CA, and says why an untrusted one fails", async () => {
+    // A private CA and a server certificate for 127.0.0.1, made with Debian's openssl.
+    const pki = mkdtempSync(join(tmpdir(), "overask-tls-"));
+    const sh = (cmd: string) => execSync(cmd, { cwd: pki, stdio: "ignore" });
+    sh('openssl req -x509 -newkey rsa:2048 -nodes -keyout ca.key -out ca.crt -days 2 -subj "/CN=overask test CA"');
+    sh('openssl req -newkey rsa:2048 -nodes -keyout srv.key -out srv.csr -subj "/CN=127.0.0.1"');
+    writeFileSync(join(pki, "ext.cnf"), "subjectAltName=IP:127.0.0.1\n");
+    sh("openssl x509 -req -in srv.csr -CA ca.crt -CAkey ca.key -CAcreateserial -out srv.crt -days 2 -extfile ext.cnf");
+    const tls = await startRedis(["--port", "0", "--requirepass", "queue-secret", "--tls-cert-file", join(pki, "srv.crt"), "--tls-key-file", join(pki, "srv.key"), "--tls-ca-cert-file", join(pki, "ca.crt"), "--tls-auth-clients", "no"], "tls");
+    try {
+      const dir = inventory("tls", 1);
+      const url = `rediss://127.0.0.1:${tls.port}/tls`;
+      const env = { ...process.env, NODE_EXTRA_CA_CERTS: join(pki, "ca.crt"), OVERASK_REDIS_PASSWORD: "queue-secret" };
+      // Without the CA: one line saying why, and how to trust it.
+      const untrusted = spawnSync(process.execPath, [BIN, "sweep", dir, "-o", join(base, "tls.jsonl"), "-b", DEMO, "--queue", url], { encoding: "utf8", env: { ...env, NODE_EXTRA_CA_CERTS: "" } });
+      expect(untrusted.status).toBe(EXIT.INPUT);
+      expect(untrusted.stderr).toMatch(/^overask: rediss:\/\/127\.0\.0\.1:\d+\/tls: cannot reach the queue's Redis: self-signed certificate in certificate chain \(a private CA is trusted with NODE_EXTRA_CA_CERTS=<its PEM file>\)\n$/);
+      const worker = spawn(process.execPath, [BIN, "work", url, "-j", "1", "-b", DEMO, "--drain"], { stdio: "ignore", env });
+      const producer = spawnSync(process.execPath, [BIN, "sweep", dir, "-o", join(base, "tls.jsonl"), "-b", DEMO, "--queue", url], { encoding: "utf8", env });
+      expect(producer.status).toBe(EXIT.INPUT); // the inventory's broken file
+      expect(producer.stdout + producer.stderr).not.toContain("queue-secret");
+      expect(sortedLines(join(base, "tls.jsonl")).map((l) => JSON.parse(l).id)).toEqual(readdirSync(dir).sort());
+      expect(await new Promise((r) => worker.on("exit", r))).toBe(0);
+    } finally {
+      await tls.stop();
+    }
+  }, 60_000);
 
   it("says in one line, exit 3, when Redis cannot be reached, and never prints a password", async () => {
     const dir = inventory("unreachable", 1);
