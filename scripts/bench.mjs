@@ -467,7 +467,7 @@ if (ONLY.includes("code") && hasSmali) {
     readT.push(ms(t));
   }
   const parsed = lib.readDex(dex);
-  console.log(`ids: ${parsed.strings.length.toLocaleString("en")} strings, ${parsed.methods.length.toLocaleString("en")} method refs, ${parsed.classes.length.toLocaleString("en")} classes`);
+  console.log(`ids: ${parsed.stringCount.toLocaleString("en")} strings, ${parsed.methodCount.toLocaleString("en")} method ids, ${parsed.classes.length.toLocaleString("en")} classes`);
   console.log(`floor (walk the id tables):        median ${fmt(median(floorT))} ms`);
   console.log(`readDex (ids + every method's code): median ${fmt(median(readT))} ms = ${(median(readT) / median(floorT)).toFixed(2)}x the floor (goal within 3x)`);
 

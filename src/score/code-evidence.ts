@@ -100,7 +100,7 @@ export function codeEvidence(manifest: Manifest, dexes: readonly DexInput[], map
     const methodEntry = (i: number) => {
       let r = methodKeys.get(i);
       if (r === undefined) {
-        const m = dex.methods[i];
+        const m = dex.method(i);
         const owner = javaName(m.owner);
         if (!map.methodOwners.has(owner)) {
           methodKeys.set(i, null);
@@ -123,7 +123,7 @@ export function codeEvidence(manifest: Manifest, dexes: readonly DexInput[], map
         if (r) hit("method", r.what, r.entry, cls);
       }
       for (const i of c.fieldRefs) {
-        const f = dex.fields[i];
+        const f = dex.field(i);
         const what = `${javaName(f.owner)}.${f.name}`;
         const e = map.fields.get(what);
         if (e) hit("field", what, e, cls);

@@ -43,9 +43,19 @@ export interface DexFile {
   stringStartsWith(i: number, prefix: string): boolean;
   /** Every string, decoded (a decode of each on first access: for listings and tests). */
   readonly strings: string[];
-  types: string[];
-  methods: DexMethodRef[];
-  fields: DexFieldRef[];
+  typeCount: number;
+  /** Type descriptor `i` (made on first use; a bad index raises DexError). */
+  type(i: number): string;
+  methodCount: number;
+  /** Method id `i` (made on first use; a bad index raises DexError). */
+  method(i: number): DexMethodRef;
+  fieldCount: number;
+  /** Field id `i` (made on first use; a bad index raises DexError). */
+  field(i: number): DexFieldRef;
+  /** Every type, method and field id, made on access (for listings and tests). */
+  readonly types: string[];
+  readonly methods: DexMethodRef[];
+  readonly fields: DexFieldRef[];
   classes: DexClass[];
 }
 
@@ -144,8 +154,10 @@ export function readDex(bytes: Uint8Array): DexFile {
   const starts = new Uint32Array(strT.size);
   const lengths = new Uint32Array(strT.size);
   const bytesLength = bytes.length;
+  const maxLength = LIMITS.MAX_STRING_LENGTH;
+  const sv = r.view;
   for (let i = 0; i < strT.size; i++) {
-    let p = r.u32(strT.off + 4 * i, "string_data_off");
+    let p = sv.getUint32(strT.off + 4 * i, true); // inside the table, checked by table()
     let units = 0;
     let shift = 0;
     for (;;) {
@@ -156,7 +168,7 @@ export function readDex(bytes: Uint8Array): DexFile {
       shift += 7;
       if (shift >= 35) throw new DexError(`string length: a ULEB128 value runs past 5 bytes at offset ${p}`);
     }
-    checkLimit("MAX_STRING_LENGTH", units, "dex string declares a length of");
+    if (units > maxLength) checkLimit("MAX_STRING_LENGTH", units, "dex string declares a length of");
     if (p + units > bytesLength) throw new DexError(`string data at ${p} runs past the end of the file`);
     starts[i] = p;
     lengths[i] = units;
@@ -172,16 +184,19 @@ export function readDex(bytes: Uint8Array): DexFile {
     if (i >= strT.size) throw new DexError(`${what} names string ${i}, past the ${strT.size} strings`);
     return stringAt(i);
   };
-  // Each id table lies inside the file (checked by table()): its entries are read directly.
+  // Each id table lies inside the file (checked by table()): its entries are read directly. Types, protos,
+  // methods and fields are made when first asked for (a dex names far more than any caller looks up); a
+  // bad index among them is a DexError then.
   const dv = r.view;
-  const types = new Array<string>(typeT.size);
-  for (let i = 0; i < typeT.size; i++) types[i] = str(dv.getUint32(typeT.off + 4 * i, true), "type_id");
-  const type = (i: number, what: string) => {
-    if (i >= types.length) throw new DexError(`${what} names type ${i}, past the ${types.length} types`);
-    return types[i];
+  const typeCache = new Array<string | undefined>(typeT.size);
+  const type = (i: number, what: string): string => {
+    if (!(i >= 0 && i < typeT.size)) throw new DexError(`${what} names type ${i}, past the ${typeT.size} types`);
+    return (typeCache[i] ??= str(dv.getUint32(typeT.off + 4 * i, true), "type_id"));
   };
-  const protos = new Array<{ params: string[]; returns: string }>(protoT.size);
-  for (let i = 0; i < protoT.size; i++) {
+  const protoCache = new Array<{ params: string[]; returns: string } | undefined>(protoT.size);
+  const proto = (i: number): { params: string[]; returns: string } => {
+    let v = protoCache[i];
+    if (v) return v;
     const base = protoT.off + 12 * i;
     const returns = type(dv.getUint32(base + 4, true), "proto_id");
     const listOff = dv.getUint32(base + 8, true);
@@ -190,28 +205,32 @@ export function readDex(bytes: Uint8Array): DexFile {
       const n = r.u32(listOff, "type_list size");
       checkLimit("MAX_DEX_IDS", n, "dex parameter list declares a count of");
       r.need(listOff + 4, 2 * n, "type_list");
-      for (let k = 0; k < n; k++) params.push(type(r.u16(listOff + 4 + 2 * k, "type_item"), "type_list"));
+      for (let k = 0; k < n; k++) params.push(type(dv.getUint16(listOff + 4 + 2 * k, true), "type_list"));
     }
-    protos[i] = { params, returns };
-  }
-  const fields = new Array<DexFieldRef>(fieldT.size);
-  for (let i = 0; i < fieldT.size; i++) {
+    return (protoCache[i] = v = { params, returns });
+  };
+  const fieldCache = new Array<DexFieldRef | undefined>(fieldT.size);
+  const field = (i: number): DexFieldRef => {
+    if (!(i >= 0 && i < fieldT.size)) throw new DexError(`field ${i} is past the ${fieldT.size} field ids`);
     const base = fieldT.off + 8 * i;
-    fields[i] = { owner: type(dv.getUint16(base, true), "field_id"), type: type(dv.getUint16(base + 2, true), "field_id"), name: str(dv.getUint32(base + 4, true), "field_id") };
-  }
-  const methods = new Array<DexMethodRef>(methodT.size);
-  for (let i = 0; i < methodT.size; i++) {
+    return (fieldCache[i] ??= { owner: type(dv.getUint16(base, true), "field_id"), type: type(dv.getUint16(base + 2, true), "field_id"), name: str(dv.getUint32(base + 4, true), "field_id") });
+  };
+  const methodCache = new Array<DexMethodRef | undefined>(methodT.size);
+  const method = (i: number): DexMethodRef => {
+    if (!(i >= 0 && i < methodT.size)) throw new DexError(`method ${i} is past the ${methodT.size} method ids`);
+    let m = methodCache[i];
+    if (m) return m;
     const base = methodT.off + 8 * i;
     const protoIdx = dv.getUint16(base + 2, true);
-    if (protoIdx >= protos.length) throw new DexError(`method_id ${i} names proto ${protoIdx}, past the ${protos.length} protos`);
-    const proto = protos[protoIdx];
-    methods[i] = { owner: type(dv.getUint16(base, true), "method_id"), name: str(dv.getUint32(base + 4, true), "method_id"), params: proto.params, returns: proto.returns };
-  }
+    if (protoIdx >= protoT.size) throw new DexError(`method_id ${i} names proto ${protoIdx}, past the ${protoT.size} protos`);
+    const pr = proto(protoIdx);
+    return (methodCache[i] = m = { owner: type(dv.getUint16(base, true), "method_id"), name: str(dv.getUint32(base + 4, true), "method_id"), params: pr.params, returns: pr.returns });
+  };
 
   const classes: DexClass[] = [];
   let codeUnits = 0;
   // Which class last noted each id: a reference is listed once per class without a set per class.
-  const seen = { m: new Int32Array(methods.length), f: new Int32Array(fields.length), s: new Int32Array(strT.size) };
+  const seen = { m: new Int32Array(methodT.size), f: new Int32Array(fieldT.size), s: new Int32Array(strT.size) };
   const newRefs = (stamp: number): Refs => ({ stamp, m: [], f: [], s: [], seen });
   for (let i = 0; i < classT.size; i++) {
     const base = classT.off + 32 * i;
@@ -221,24 +240,33 @@ export function readDex(bytes: Uint8Array): DexFile {
     const refs = newRefs(i + 1);
     if (dataOff) {
       const at = { p: dataOff };
-      const counts = [uleb(r, at, "class_data"), uleb(r, at, "class_data"), uleb(r, at, "class_data"), uleb(r, at, "class_data")];
+      // ULEB128 values, one byte each in the common case: read inline, the rest by uleb() with its checks.
+      const next = (what: string): number => {
+        const b = bytes[at.p];
+        if (b < 0x80) {
+          at.p++;
+          return b;
+        }
+        return uleb(r, at, what);
+      };
+      const counts = [next("class_data"), next("class_data"), next("class_data"), next("class_data")];
       for (const n of counts) checkLimit("MAX_DEX_IDS", n, "dex class data declares a member count of");
       // Fields carry (field_idx_diff, access_flags); methods add code_off.
       for (let k = 0; k < counts[0] + counts[1]; k++) {
-        uleb(r, at, "encoded_field");
-        uleb(r, at, "encoded_field");
+        next("encoded_field");
+        next("encoded_field");
       }
       for (let k = 0; k < counts[2] + counts[3]; k++) {
-        uleb(r, at, "encoded_method");
-        uleb(r, at, "encoded_method");
-        const codeOff = uleb(r, at, "encoded_method code_off");
+        next("encoded_method");
+        next("encoded_method");
+        const codeOff = next("encoded_method code_off");
         if (!codeOff) continue;
         // code_item: insns_size (u32) at +12, insns (u16 each) from +16.
         const insns = r.u32(codeOff + 12, "code_item insns_size");
         codeUnits += insns;
         checkLimit("MAX_DEX_CODE_UNITS", codeUnits, "dex code holds instructions, in 16-bit units, to a count of");
         r.need(codeOff + 16, 2 * insns, "code_item insns");
-        scanCode(r, codeOff + 16, insns, refs, { strings: strT.size, methods: methods.length, fields: fields.length });
+        scanCode(r, codeOff + 16, insns, refs, { strings: strT.size, methods: methodT.size, fields: fieldT.size });
       }
     }
     classes.push({ descriptor, ...(superIdx !== NO_INDEX ? { superclass: type(superIdx, "class_def superclass") } : {}), methodRefs: refs.m, fieldRefs: refs.f, stringRefs: refs.s });
@@ -258,9 +286,21 @@ export function readDex(bytes: Uint8Array): DexFile {
       if (!all) all = Array.from({ length: strT.size }, (_, i) => stringAt(i));
       return all;
     },
-    types,
-    methods,
-    fields,
+    typeCount: typeT.size,
+    type: (i: number) => type(i, "type"),
+    methodCount: methodT.size,
+    method,
+    fieldCount: fieldT.size,
+    field,
+    get types() {
+      return Array.from({ length: typeT.size }, (_, i) => type(i, "type"));
+    },
+    get methods() {
+      return Array.from({ length: methodT.size }, (_, i) => method(i));
+    },
+    get fields() {
+      return Array.from({ length: fieldT.size }, (_, i) => field(i));
+    },
     classes,
   };
 }
