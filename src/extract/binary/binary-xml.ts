@@ -146,12 +146,14 @@ function readAttribute(
   str: (i: number) => string | undefined,
   resourceIds: Uint32Array | undefined,
 ): XmlAttribute {
-  // ResXMLTree_attribute: ns (u32), name (u32), rawValue (u32), typedValue (Res_value: size u16, res0 u8, dataType u8, data u32)
-  const nsIndex = r.u32(at, "attribute namespace");
-  const nameIndex = r.u32(at + 4, "attribute name");
-  const rawIndex = r.u32(at + 8, "attribute raw value");
-  const dataType = r.u8(at + 15, "attribute value type");
-  const data = r.i32(at + 16, "attribute value data");
+  // ResXMLTree_attribute: ns (u32), name (u32), rawValue (u32), typedValue (Res_value: size u16, res0 u8, dataType u8, data u32).
+  // The element checked that its attributes lie inside its chunk, and the chunk inside the file: read directly.
+  const v = r.view;
+  const nsIndex = v.getUint32(at, true);
+  const nameIndex = v.getUint32(at + 4, true);
+  const rawIndex = v.getUint32(at + 8, true);
+  const dataType = v.getUint8(at + 15);
+  const data = v.getInt32(at + 16, true);
   const storedName = str(nameIndex) ?? "";
   const resourceId = resourceIds && nameIndex < resourceIds.length ? resourceIds[nameIndex] : undefined;
   const attr: XmlAttribute = { name: storedName, value: typedValue(dataType, data, str) };

@@ -34,9 +34,11 @@ export interface ChunkHeader {
  * A header size below 8 or a chunk smaller than its header is a lie we refuse.
  */
 export function readChunkHeader(r: ByteReader, offset: number, end: number, what: string): ChunkHeader {
-  const type = r.u16(offset, `${what} chunk type`); // ResChunk_header.type (u16)
-  const headerSize = r.u16(offset + 2, `${what} chunk header size`); // ResChunk_header.headerSize (u16)
-  const size = r.u32(offset + 4, `${what} chunk size`); // ResChunk_header.size (u32)
+  // One bounds check for the 8-byte header (the message is built only when it fails).
+  if (!(offset >= 0 && offset + CHUNK_HEADER_SIZE <= r.length)) r.need(offset, CHUNK_HEADER_SIZE, `${what} chunk header`);
+  const type = r.view.getUint16(offset, true); // ResChunk_header.type (u16)
+  const headerSize = r.view.getUint16(offset + 2, true); // ResChunk_header.headerSize (u16)
+  const size = r.view.getUint32(offset + 4, true); // ResChunk_header.size (u32)
   if (headerSize < CHUNK_HEADER_SIZE || size < headerSize) {
     throw r.fail(
       `${what} chunk 0x${type.toString(16).padStart(4, "0")} at offset ${offset} has header size ${headerSize} and size ${size}`,
