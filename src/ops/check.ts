@@ -10,10 +10,8 @@ import { scoreRecord, type RecordScore } from "../score/records.js";
 import { levelRank, type Level } from "../score/types.js";
 import { openCorpusFile, type CorpusFileOptions } from "./corpus.js";
 import { readTextFile } from "./files.js";
-import { readAppFile, readCodeEvidence } from "./read-manifest.js";
+import { readAppFile } from "./read-manifest.js";
 import type { ReadOptions } from "../extract/read.js";
-import type { CodeEvidence } from "../score/code-evidence.js";
-import type { Manifest } from "../extract/manifest/model.js";
 import { CorpusError } from "../errors.js";
 
 /** Reads a `package,category` CSV (header optional). */
@@ -49,13 +47,10 @@ export type FileJudgeOptions = JudgeOptions & {
   readCode?: boolean;
 };
 
-/** Reads a file's manifest (unless given) and, unless told not to, its code; then judges it. */
-export function judgeFile(judge: Judge, file: string, options: FileJudgeOptions, manifest?: Manifest, read: ReadOptions = {}): CheckResult {
+/** Reads a file's manifest and, unless told not to, its code (one opening of the file); then judges it. */
+export function judgeFile(judge: Judge, file: string, options: FileJudgeOptions, read: ReadOptions = {}): CheckResult {
   const { readCode = true, ...rest } = options;
-  let code: CodeEvidence | undefined;
-  if (manifest) code = readCode ? readCodeEvidence(file, manifest) : undefined;
-  // Not read yet: the manifest and the code in one opening of the file.
-  else ({ manifest, code } = readAppFile(file, read, readCode));
+  const { manifest, code } = readAppFile(file, read, readCode);
   return judge.judge(manifest, code ? { ...rest, code } : rest);
 }
 

@@ -2,7 +2,7 @@
 import { InputError } from "../errors.js";
 import type { ReadOptions } from "../extract/read.js";
 import type { FactsResult } from "../report/facts.js";
-import { readCodeEvidence, readManifestFile } from "./read-manifest.js";
+import { readAppFile } from "./read-manifest.js";
 
 export interface FactsOptions extends ReadOptions {
   /** Read the app's dex code for code evidence (default true; archives only). */
@@ -13,8 +13,8 @@ export interface FactsOptions extends ReadOptions {
 export function facts(files: readonly string[], options: FactsOptions = {}): FactsResult[] {
   return files.map((file): FactsResult => {
     try {
-      const manifest = readManifestFile(file, options);
-      const code = options.code === false ? undefined : readCodeEvidence(file, manifest);
+      // The manifest and (unless told not to) the code, in one opening of the file.
+      const { manifest, code } = readAppFile(file, options, options.code !== false);
       return { file, manifest, ...(code ? { code } : {}) };
     } catch (e) {
       if (!(e instanceof InputError)) throw e;

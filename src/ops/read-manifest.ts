@@ -7,7 +7,6 @@ import { closeSync, constants as fsConstants, fstatSync, openSync, readSync } fr
 import { InputError, withFile } from "../errors.js";
 import { readAppSource, type AppRead, type ReadOptions } from "../extract/read.js";
 import { openArchive, type ArchiveReader, type RandomAccessSource } from "../extract/containers/zip.js";
-import { readDexEntries, wantedCodeEntry, type DexInput } from "../extract/code.js";
 import { codeEvidence, type CodeEvidence } from "../score/code-evidence.js";
 import type { Manifest } from "../extract/manifest/model.js";
 import { fsError } from "./files.js";
@@ -72,29 +71,4 @@ export function openArchiveFile(path: string, only?: readonly string[] | ((name:
   } catch (e) {
     throw withFile(fsError(e), path);
   }
-}
-
-/** Input kinds that are archives, and so can carry the app's dex code. */
-const ARCHIVE_KINDS: ReadonlySet<Manifest["input"]["kind"]> = new Set(["apk", "proto-apk", "app-bundle", "multi-apk"]);
-
-/**
- * Code evidence for a file whose manifest was read: its dex code against the API→permission map. Only
- * archives carry code; a bare manifest, or an archive without dex (a resource-only build), has none:
- * `undefined`. A damaged dex is a problem in the evidence, never an error.
- */
-export function readCodeEvidence(path: string, manifest: Manifest): CodeEvidence | undefined {
-  if (!ARCHIVE_KINDS.has(manifest.input.kind)) return undefined;
-  let dexes: DexInput[];
-  let archive: ArchiveReader | undefined;
-  try {
-    archive = openArchiveFile(path, wantedCodeEntry);
-    dexes = readDexEntries(archive);
-  } catch (e) {
-    const err = fsError(e);
-    if (!(err instanceof InputError)) throw err;
-    dexes = [{ entry: "archive", problem: err.detail() }];
-  } finally {
-    archive?.close();
-  }
-  return dexes.length ? codeEvidence(manifest, dexes) : undefined;
 }

@@ -42,8 +42,8 @@ export interface TrimOutcome {
 
 export function trim(judge: Judge, file: string, o: TrimOptions): TrimOutcome {
   if (o.inPlace && o.write) throw new UsageError("give either --write FILE or --in-place, not both");
-  const manifest = readManifestFile(file);
-  const result = judgeFile(judge, file, o.judge, manifest);
+  const result = judgeFile(judge, file, o.judge);
+  const manifest = result.manifest;
   const origins = o.mergeReport ? parseMergeReport(readTextFile(o.mergeReport)) : undefined;
   const scorer = judge.scorer;
   const category = result.category.category;

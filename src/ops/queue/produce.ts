@@ -12,8 +12,7 @@ import { UsageError } from "../../errors.js";
 import type { JudgeOptions } from "../../score/judge.js";
 import { failedRow } from "../../score/row.js";
 import type { LoadedJudge } from "../baseline.js";
-import { briefOf, setupOf, type ScoredLine, type SweepInput } from "../sweep/rows.js";
-import { rowToCsv } from "../../report/csv.js";
+import { scoredLine, setupOf, type ScoredLine, type SweepInput } from "../sweep/rows.js";
 import { SweepOutput, sweepInputs, type OutputOptions, type SweepSummary } from "../sweep/sweep.js";
 import type { QueueAddress } from "./address.js";
 import { JOB_OPTIONS, jobIdOf, keysOf, PREFIX, shortHash, type JobData, type SweepMeta } from "./jobs.js";
@@ -165,9 +164,7 @@ async function failedRows(queue: Queue, pending: Map<string, SweepInput>, out: S
   for (const job of failed) {
     const input = job.id ? pending.get(job.id) : undefined;
     if (!input) continue;
-    const row = failedRow(input, { kind: "QueueError", message: `no worker finished it in ${job.attemptsMade} attempts: ${job.failedReason}` });
-    const line = out.format === "jsonl" ? JSON.stringify(row) : rowToCsv(row).slice(0, -1);
-    batch.push({ ...briefOf(row), line });
+    batch.push(scoredLine(failedRow(input, { kind: "QueueError", message: `no worker finished it in ${job.attemptsMade} attempts: ${job.failedReason}` }), out.format));
     pending.delete(job.id!);
   }
   out.write(batch);

@@ -71,7 +71,7 @@ const ACCESS_PROBLEM = /^(no such file|permission denied|is not a regular file)/
  */
 export function scoreInput(judge: Judge, input: SweepInput, options: JudgeOptions, readCode = true, host?: string): AppRow {
   try {
-    return rowOf(input, judgeFile(judge, input.file, { ...(input.category ? { ...options, category: input.category } : options), readCode }, undefined, { resolveResources: false }));
+    return rowOf(input, judgeFile(judge, input.file, { ...(input.category ? { ...options, category: input.category } : options), readCode }, { resolveResources: false }));
   } catch (e) {
     if (e instanceof InputError) {
       const message = e.detail();
@@ -109,6 +109,10 @@ export function briefOf(row: AppRow): Omit<ScoredLine, "line"> {
 
 /** Scores an input and serializes the row where it was scored (a worker), so that only a string travels. */
 export function scoreToLine(judge: Judge, input: SweepInput, options: JudgeOptions, format: SweepFormat, readCode = true, host?: string): ScoredLine {
-  const row = scoreInput(judge, input, options, readCode, host);
+  return scoredLine(scoreInput(judge, input, options, readCode, host), format);
+}
+
+/** A row as the output file gets it (one line, no newline), with its summary fields. */
+export function scoredLine(row: AppRow, format: SweepFormat): ScoredLine {
   return { ...briefOf(row), line: format === "jsonl" ? JSON.stringify(row) : rowToCsv(row).slice(0, -1) };
 }
