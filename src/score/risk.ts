@@ -96,7 +96,7 @@ export class RiskScorer {
    * one of them left out — summed in the same order as for the whole app, so that a what-if figure is
    * exactly the log-odds of the smaller app (not the whole minus a part, which rounds differently).
    */
-  private parts(category: string | undefined, perms: readonly string[]): { z: (without?: (i: number) => boolean) => number; terms: number[] } {
+  private parts(category: string | undefined, perms: readonly string[]): { z: (without?: (i: number) => boolean) => number; terms: number[]; uncommon: boolean[] } {
     const m = this.model;
     const weight = perms.map((p) => {
       const j = this.index.get(p);
@@ -122,7 +122,9 @@ export class RiskScorer {
       }
       return [Math.log1p(us), Math.log1p(uo), sp];
     };
-    return { z, terms: termsOf() };
+    // Uncommon as the model's features see it: by the era rule's basis (a permission newer than the baseline
+    // and not judged by frequency is not "uncommon", just unmeasured).
+    return { z, terms: termsOf(), uncommon: t.map((x) => x.uncommonSensitive + x.uncommonOther > 0) };
   }
 
   probability(category: string | undefined, permissions: readonly string[]): number {
@@ -150,7 +152,7 @@ export class RiskScorer {
     ]
       .filter((c) => c.logOdds > 1e-9)
       .sort((a, b) => b.logOdds - a.logOdds);
-    const uncommon = perms.filter((p) => this.baseline.rate(category, p).uncommon);
+    const uncommon = perms.filter((_, i) => parts.uncommon[i]);
     const out: RiskEstimate = {
       probability,
       band: bandOf(probability, this.cuts),
@@ -160,7 +162,7 @@ export class RiskScorer {
       ...(category !== undefined ? { featureCategory: category } : {}),
       contributions,
       whatIf,
-      ...(uncommon.length > 1 ? { withoutUncommon: { permissions: uncommon, without: this.probability(category, perms.filter((q) => !uncommon.includes(q))) } } : {}),
+      ...(uncommon.length > 1 ? { withoutUncommon: { permissions: uncommon, without: sigmoid(parts.z((i) => parts.uncommon[i])) } } : {}),
       quality: { inCorpus: m.evaluation.auc, validation: m.validation.map((v) => ({ name: v.name, auc: v.auc })) },
       corpus: m.corpus,
       caution: this.caution,

@@ -25,6 +25,16 @@ describe("RiskScorer", () => {
     }
   });
 
+  it("counts as uncommon only what the model's features judge by frequency, not a permission newer than the baseline", () => {
+    // POST_NOTIFICATIONS made an old behaviour explicit at API 33 (src/platform/data/permission-lineage.tsv); the
+    // bundled baseline's apps (API 29) could not request it, so its zero count says nothing and is not judged.
+    const app = ["android.permission.READ_SMS", "android.permission.ACCESS_BACKGROUND_LOCATION", "android.permission.POST_NOTIFICATIONS", "android.permission.INTERNET"];
+    const e = scorer.estimate("TOOLS", app);
+    expect(defaultJudge.baseline.rate("TOOLS", "android.permission.POST_NOTIFICATIONS").uncommon).toBe(true); // the raw count alone
+    expect(e.withoutUncommon?.permissions.sort()).toEqual(["android.permission.ACCESS_BACKGROUND_LOCATION", "android.permission.READ_SMS"]);
+    expect(e.withoutUncommon?.without).toBeCloseTo(scorer.probability("TOOLS", ["android.permission.POST_NOTIFICATIONS", "android.permission.INTERNET"]), 12);
+  });
+
   it("never raises the risk when a permission is removed", () => {
     const e = scorer.estimate("TOOLS", perms);
     for (const w of e.whatIf) expect(w.change).toBeLessThanOrEqual(1e-12);
