@@ -68,7 +68,8 @@ export function rowCode(code: CodeEvidence): RowCode {
 /** A finding's message, with the reasons folded into it (`also`), worded by their checks. */
 function messageWithAlso(f: Finding): string {
   const word = (checkId: string, data: Finding["data"]) => wordFinding({ checkId, subject: f.subject, data });
-  return [word(f.checkId, f.data), ...(f.also ?? []).map((a) => `also (${a.checkId}): ${word(a.checkId, a.data)}`)].join(" ");
+  // " — also (check): …": a message need not end in a full stop, so the reasons are set apart plainly.
+  return [word(f.checkId, f.data), ...(f.also ?? []).map((a) => `also (${a.checkId}): ${word(a.checkId, a.data)}`)].join(" — ");
 }
 
 /** The row of a judged app. */

@@ -203,7 +203,7 @@ describe("overask sweep", () => {
       expect(row.band).toBe(c.risk?.band);
       // A row's message folds in the other reasons for the same subject (`also`), which check's JSON lists apart.
       type Also = { checkId: string; message: string };
-      const message = (f: { message: string; also?: Also[] }) => [f.message, ...(f.also ?? []).map((a) => `also (${a.checkId}): ${a.message}`)].join(" ");
+      const message = (f: { message: string; also?: Also[] }) => [f.message, ...(f.also ?? []).map((a) => `also (${a.checkId}): ${a.message}`)].join(" — ");
       expect(row.findings).toEqual(c.findings.map((f: { checkId: string; level: string; subject: string; message: string; also?: Also[] }) => ({ checkId: f.checkId, level: f.level, subject: f.subject, message: message(f) })));
       expect(row.whatIf).toEqual((c.risk?.whatIf ?? []).filter((w: { change: number }) => w.change < 0).slice(0, 5).map((w: { permission: string; without: number }) => ({ permission: w.permission, without: w.without })));
       if (c.code) {
