@@ -10,7 +10,7 @@
  *   how permissions the labeled corpus never recorded, and the category (`-c`), enter the risk.
  */
 import { isSensitive } from "../platform/sensitivity.js";
-import { frequencyBasis } from "./era.js";
+import { isJudgedUncommon, judgeFrequency } from "./judged.js";
 import type { Baseline, Exclusion } from "./rates.js";
 
 export const TERM_NAMES = ["uncommonSensitive", "uncommonOther", "surprisal"] as const;
@@ -36,11 +36,12 @@ export interface PermissionTerms {
  * absence from an older corpus is not evidence. Sensitivity is always the requested permission's own.
  */
 export function permissionTerms(baseline: Baseline, category: string | undefined, permission: string, exclude?: Exclusion): PermissionTerms {
-  const basis = frequencyBasis(baseline, category, permission);
-  if (basis.kind !== "own" && basis.kind !== "predecessor") return { permission, uncommonSensitive: 0, uncommonOther: 0, surprisal: 0 };
-  const r = baseline.rate(category, basis.basis, exclude);
+  // The app's own permissions are left out by the caller (score/judge.ts): a corpus record has no manifest.
+  const j = judgeFrequency(undefined, baseline, category, permission, (p) => baseline.rate(category, p, exclude));
+  if (j.kind !== "rate") return { permission, uncommonSensitive: 0, uncommonOther: 0, surprisal: 0 };
+  const uncommon = isJudgedUncommon(j);
   const sensitive = isSensitive(permission);
-  return { permission, uncommonSensitive: r.uncommon && sensitive ? 1 : 0, uncommonOther: r.uncommon && !sensitive ? 1 : 0, surprisal: -Math.log(r.rate) };
+  return { permission, uncommonSensitive: uncommon && sensitive ? 1 : 0, uncommonOther: uncommon && !sensitive ? 1 : 0, surprisal: -Math.log(j.rate.rate) };
 }
 
 /** The three category-relative terms of an app, in TERM_NAMES order. */

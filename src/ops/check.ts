@@ -50,8 +50,8 @@ export type FileJudgeOptions = JudgeOptions & {
 /** Reads a file's manifest and, unless told not to, its code (one opening of the file); then judges it. */
 export function judgeFile(judge: Judge, file: string, options: FileJudgeOptions, read: ReadOptions = {}): CheckResult {
   const { readCode = true, ...rest } = options;
-  const { manifest, code } = readAppFile(file, read, readCode);
-  return judge.judge(manifest, code ? { ...rest, code } : rest);
+  const { manifest, dexes } = readAppFile(file, read, readCode);
+  return judge.judge(manifest, dexes?.length ? { ...rest, dexes } : rest);
 }
 
 /** Judges each file; an unreadable one is a run with its error, and the rest are still judged. */

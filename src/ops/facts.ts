@@ -2,6 +2,7 @@
 import { InputError } from "../errors.js";
 import type { ReadOptions } from "../extract/read.js";
 import type { FactsResult } from "../report/facts.js";
+import { codeEvidence } from "../score/code-evidence.js";
 import { readAppFile } from "./read-manifest.js";
 
 export interface FactsOptions extends ReadOptions {
@@ -14,8 +15,8 @@ export function facts(files: readonly string[], options: FactsOptions = {}): Fac
   return files.map((file): FactsResult => {
     try {
       // The manifest and (unless told not to) the code, in one opening of the file.
-      const { manifest, code } = readAppFile(file, options, options.code !== false);
-      return { file, manifest, ...(code ? { code } : {}) };
+      const { manifest, dexes } = readAppFile(file, options, options.code !== false);
+      return { file, manifest, ...(dexes?.length ? { code: codeEvidence(manifest, dexes) } : {}) };
     } catch (e) {
       if (!(e instanceof InputError)) throw e;
       options.onError?.(file, e);

@@ -7,7 +7,6 @@ import { closeSync, constants as fsConstants, fstatSync, openSync, readSync } fr
 import { InputError, withFile } from "../errors.js";
 import { readAppSource, type AppRead, type ReadOptions } from "../extract/read.js";
 import { openArchive, type ArchiveReader, type RandomAccessSource } from "../extract/containers/zip.js";
-import { codeEvidence, type CodeEvidence } from "../score/code-evidence.js";
 import type { Manifest } from "../extract/manifest/model.js";
 import { fsError } from "./files.js";
 
@@ -32,15 +31,10 @@ export function readManifestFile(path: string, options: ReadOptions = {}): Manif
 }
 
 /**
- * Reads a file's manifest and, with `code`, its code evidence, opening the file once: a bare manifest, or
- * an archive without dex (a resource-only build), has none (`code` undefined).
+ * Reads a file's manifest and, with `code`, its dex code, opening the file once: a bare manifest, or an
+ * archive without dex (a resource-only build), has none. What the code means is for judging (score/).
  */
-export function readAppFile(path: string, options: ReadOptions = {}, code = false): { manifest: Manifest; code?: CodeEvidence } {
-  const read = readAppSourceFile(path, options, code);
-  return read.dexes?.length ? { manifest: read.manifest, code: codeEvidence(read.manifest, read.dexes) } : { manifest: read.manifest };
-}
-
-function readAppSourceFile(path: string, options: ReadOptions, code: boolean): AppRead {
+export function readAppFile(path: string, options: ReadOptions = {}, code = false): AppRead {
   let fd: number | undefined;
   try {
     // Opening a FIFO would wait for a writer: opened without blocking, then refused by what fstat says.

@@ -5,11 +5,13 @@
  */
 import type { BaselineFile } from "../baseline/baseline-file.js";
 import type { Baseline, PermissionRate } from "../baseline/rates.js";
+import { judgeFrequency, type FrequencyJudgement } from "../baseline/judged.js";
+import { reportedByAnotherCheck } from "../score/uncommon.js";
+import { compareText } from "../util/compare.js";
 import { TOOL_VERSION } from "../version.js";
 import { PLAIN, fit, wrap, type Style } from "./style.js";
+import { pct, short } from "./format.js";
 
-const pct = (x: number) => `${(100 * x).toFixed(x < 0.01 ? 2 : 1)}%`;
-const short = (n: string) => n.replace(/^android\.permission\./, "");
 
 export interface BaselineView {
   name: string;
@@ -21,18 +23,57 @@ export interface BaselineView {
   permission?: string;
 }
 
-function rateRow(r: PermissionRate) {
-  return { permission: r.permission, category: r.category ?? null, fallback: r.fallback ?? null, k: r.k, n: r.n, share: r.n ? r.k / r.n : 0, rate: r.rate, lower: r.lower, upper: r.upper, uncommon: r.uncommon };
+/** A permission's rate in one group, and what `check` makes of it there (the one rule: baseline/judged.ts). */
+interface RateView {
+  permission: string;
+  rate: PermissionRate;
+  judgement: FrequencyJudgement;
+  uncommon: boolean;
 }
 
-function categoryRates(v: BaselineView): PermissionRate[] {
+function view(v: BaselineView, category: string | undefined, permission: string): RateView {
+  const judgement = judgeFrequency(undefined, v.baseline, category, permission);
+  // Not judged by frequency: the permission's own counts are still shown, for what they are worth.
+  const rate = judgement.kind === "rate" ? judgement.rate : v.baseline.rate(category, permission);
+  return { permission, rate, judgement, uncommon: judgement.kind === "rate" && judgement.rate.uncommon && !reportedByAnotherCheck(permission) };
+}
+
+function rateRow(x: RateView) {
+  const r = x.rate;
+  const j = x.judgement;
+  return {
+    permission: x.permission,
+    category: r.category ?? null,
+    fallback: r.fallback ?? null,
+    k: r.k,
+    n: r.n,
+    share: r.n ? r.k / r.n : 0,
+    rate: r.rate,
+    lower: r.lower,
+    upper: r.upper,
+    uncommon: x.uncommon,
+    judged: j.kind === "rate" ? (j.judgedBy ? "by-predecessor" : "by-rate") : j.kind,
+    ...(j.kind === "rate" && j.judgedBy ? { judgedBy: j.judgedBy.permission } : {}),
+  };
+}
+
+function categoryRates(v: BaselineView): RateView[] {
   const g = v.baseline.counts.categories.get(v.category!);
   const names = [...(g?.permissions.keys() ?? [])];
-  return names.map((p) => v.baseline.rate(v.category, p)).sort((a, b) => b.k - a.k || a.permission.localeCompare(b.permission));
+  return names.map((p) => view(v, v.category, p)).sort((a, b) => b.rate.k - a.rate.k || compareText(a.permission, b.permission));
 }
 
-function permissionRates(v: BaselineView): PermissionRate[] {
-  return [...[...v.baseline.counts.categories.keys()].sort().map((c) => v.baseline.rate(c, v.permission!)), v.baseline.rate(undefined, v.permission!)];
+function permissionRates(v: BaselineView): RateView[] {
+  return [...[...v.baseline.counts.categories.keys()].sort().map((c) => view(v, c, v.permission!)), view(v, undefined, v.permission!)];
+}
+
+/** What `check` does with the permission in this group, when it is not simply its own rate. */
+function judgementNote(x: RateView): string {
+  const j = x.judgement;
+  if (j.kind === "rate") return j.judgedBy ? `  judged by ${short(j.judgedBy.permission)}` : "";
+  if (j.kind === "made-explicit") return `  not judged by frequency: made an older behaviour explicit in API ${j.addedIn}`;
+  if (j.kind === "no-evidence") return `  not judged by frequency: added in API ${j.addedIn}, after the baseline's era`;
+  return "";
 }
 
 export function baselineToJson(v: BaselineView): string {
@@ -56,13 +97,14 @@ export function baselineToJson(v: BaselineView): string {
   return `${JSON.stringify(out, null, 2)}\n`;
 }
 
-function rateLines(rates: PermissionRate[], label: (r: PermissionRate) => string, confidence: number, s: Style): string[] {
-  const width = Math.min(52, Math.max(12, ...rates.map((r) => label(r).length)));
+function rateLines(rates: RateView[], label: (r: PermissionRate) => string, confidence: number, s: Style): string[] {
+  const width = Math.min(52, Math.max(12, ...rates.map((r) => label(r.rate).length)));
   // The share shown is k/n itself; the smoothed rate the checks use is in the JSON (`rate`).
   const out = [s.dim(`  ${fit("", width)}  ${"apps".padStart(13)}  ${"share".padStart(6)}  ${Math.round(100 * confidence)}% interval`)];
-  for (const r of rates) {
+  for (const x of rates) {
+    const r = x.rate;
     const name = label(r);
-    out.push(`  ${fit(name, width)}  ${`${r.k} of ${r.n}`.padStart(13)}  ${pct(r.n ? r.k / r.n : 0).padStart(6)}  ${pct(r.lower)}–${pct(r.upper)}${r.uncommon ? s.warn("  uncommon") : ""}`);
+    out.push(`  ${fit(name, width)}  ${`${r.k} of ${r.n}`.padStart(13)}  ${pct(r.n ? r.k / r.n : 0, "rate").padStart(6)}  ${pct(r.lower, "rate")}–${pct(r.upper, "rate")}${x.uncommon ? s.warn("  uncommon") : ""}${s.dim(judgementNote(x))}`);
   }
   return out;
 }
@@ -82,7 +124,7 @@ export function baselineToText(v: BaselineView, s: Style = PLAIN): string {
   for (const i of f.provenance.inputs) out.push(...wrap(`  ${i.path} (${i.role}, ${i.format}${i.licence ? `, licence ${i.licence}` : ""}): ${i.accepted} of ${i.rows} rows`, 80, 4));
   if (f.model) {
     out.push("", s.bold("Risk model"));
-    out.push(...wrap(`  learned from ${f.model.corpus}${f.model.corpusLicence ? ` (${f.model.corpusLicence})` : ""}; in-corpus ROC AUC ${f.model.evaluation.auc.toFixed(3)}, base rate ${pct(f.model.evaluation.baseRate)}`, 80, 4));
+    out.push(...wrap(`  learned from ${f.model.corpus}${f.model.corpusLicence ? ` (${f.model.corpusLicence})` : ""}; in-corpus ROC AUC ${f.model.evaluation.auc.toFixed(3)}, base rate ${pct(f.model.evaluation.baseRate, "rate")}`, 80, 4));
     if (f.model.corpusCitation) out.push(...wrap(`  ${f.model.corpusCitation}`, 80, 4).map((l) => s.dim(l)));
   }
   out.push("", ...wrap(f.caution, 80, 0).map((l) => s.dim(l)));

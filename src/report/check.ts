@@ -6,12 +6,13 @@ import type { CodeEvidence } from "../score/code-evidence.js";
 import type { CheckResult, NotJudged } from "../score/judge.js";
 import type { Policy } from "../score/policy/policy.js";
 import type { CategoryChoice } from "../score/category.js";
-import { wordFinding } from "../score/registry.js";
+import { codeLookup, wordFinding, type CodeLookup } from "./messages.js";
 import type { RiskEstimate } from "../score/risk.js";
 import type { Finding } from "../score/types.js";
 import { TOOL_VERSION } from "../version.js";
 import { findingLines } from "./finding-text.js";
 import { PLAIN, fit, wrap, type Style } from "./style.js";
+import { pct, short } from "./format.js";
 
 export const CHECK_SCHEMA_VERSION = 1;
 
@@ -28,11 +29,10 @@ export interface CheckRunInfo {
   policies?: readonly Policy[];
 }
 
-const pct = (x: number) => `${(100 * x).toFixed(x < 0.1 ? 1 : 0)}%`;
-const short = (name: string) => name.replace(/^android\.permission\./, "");
 
-export function messageOf(f: Pick<Finding, "checkId" | "subject" | "data">): string {
-  return wordFinding(f);
+/** A finding's message; `code`: what the app's code shows for its permissions (report/messages.ts). */
+export function messageOf(f: Pick<Finding, "checkId" | "subject" | "data">, code?: CodeLookup): string {
+  return wordFinding(f, code);
 }
 
 /** The other reasons folded into a finding on the same permission, worded by their own checks. */
@@ -122,7 +122,8 @@ export function checkToText(runs: CheckRun[], info: CheckRunInfo, s: Style = PLA
     else out.push(s.dim("Risk  not estimated: the baseline has no risk model"), "");
     out.push(s.bold(`Findings (${findings.length})`));
     if (findings.length === 0) out.push("  none");
-    for (const f of findings) out.push(...findingLines(f, messageOf(f), alsoMessages(f), s));
+    const code = codeLookup(run.result.code);
+    for (const f of findings) out.push(...findingLines(f, messageOf(f, code), alsoMessages(f), s));
     if (notJudged.length) {
       out.push("", s.bold(`Not judged by frequency (${notJudged.length})`));
       for (const n of notJudged) {
@@ -147,7 +148,7 @@ export function checkToJson(runs: CheckRun[], info: CheckRunInfo): string {
       targetSdk: m.targetSdk,
       category,
       ...(run.result.era ? { era: run.result.era } : {}),
-      findings: findings.map((f) => ({ ...f, message: messageOf(f), ...(f.also ? { also: alsoMessages(f).map((a, i) => ({ ...f.also![i], message: a.message })) } : {}) })),
+      findings: findings.map((f) => ({ ...f, message: messageOf(f, codeLookup(run.result!.code)), ...(f.also ? { also: alsoMessages(f).map((a, i) => ({ ...f.also![i], message: a.message })) } : {}) })),
       ...(run.result.code ? { code: run.result.code } : {}),
       notJudged: run.result.notJudged.map((n) => ({ ...n, message: notJudgedText(n, run.result!.era?.api) })),
       risk: risk ?? null,

@@ -6,6 +6,7 @@ import { REMOVED_PERMISSION_SHORT } from "../platform/sdk-facts.js";
 import { BLIND_SPOTS, codeStatusText, evidenceLabel, type CodeEvidence, type EvidenceItem, type PermissionEvidence } from "../score/code-evidence.js";
 import { TOOL_VERSION } from "../version.js";
 import { PLAIN, fit, wrap, type Style } from "./style.js";
+import { PLATFORM_PREFIX, short } from "./format.js";
 
 export interface FactsResult {
   file: string;
@@ -102,15 +103,9 @@ function exportText(c: Component): string[] {
     "no-intent-filter": "",
     "missing-at-target-31": "",
   }[c.exportedReason];
-  return [why, guard ? `requires ${shortName(guard)}` : "no permission required"];
+  return [why, guard ? `requires ${short(guard)}` : "no permission required"];
 }
 
-const PLATFORM_PREFIX = "android.permission.";
-
-/** Permission names in tables drop the `android.permission.` prefix; the table heading says so. */
-function shortName(name: string): string {
-  return name.startsWith(PLATFORM_PREFIX) ? name.slice(PLATFORM_PREFIX.length) : name;
-}
 
 function manifestText(file: string, m: Manifest, s: Style, code?: CodeEvidence): string {
   const out: string[] = [];
@@ -144,14 +139,14 @@ function manifestText(file: string, m: Manifest, s: Style, code?: CodeEvidence):
   const perms = m.usesPermissions;
   out.push("", `${s.bold(`Requested permissions (${perms.length})`)}${perms.some((p) => p.name.startsWith(PLATFORM_PREFIX)) ? s.dim(`  names without “${PLATFORM_PREFIX}”`) : ""}`);
   if (perms.length === 0) out.push("  none");
-  const nameWidth = Math.min(32, Math.max(10, ...perms.map((p) => shortName(p.name).length)));
+  const nameWidth = Math.min(32, Math.max(10, ...perms.map((p) => short(p.name).length)));
   const notesAt = 4 + nameWidth + 2;
   for (const g of PERMISSION_GROUPS) {
     const members = perms.filter((p) => groupOf(m, p) === g.id).sort(byName);
     if (!members.length) continue;
     out.push(`  ${s.bold(g.title)} ${s.dim(`(${members.length})`)}`);
     for (const p of members) {
-      const name = shortName(p.name);
+      const name = short(p.name);
       const notes = wrap(permissionNotes(p, g.id, code), WIDTH - notesAt, 0);
       if (name.length > nameWidth) out.push(`    ${name}`);
       const first = `    ${fit(name.length > nameWidth ? "" : name, nameWidth)}  ${notes[0] ?? ""}`.trimEnd();
@@ -191,14 +186,14 @@ export function codeText(code: CodeEvidence, s: Style): string[] {
   const used = code.permissions.filter((x) => x.status === "used");
   if (used.length) out.push(`  Requested and used (${used.length})`);
   for (const e of used) {
-    out.push(`    ${shortName(e.permission)}`);
+    out.push(`    ${short(e.permission)}`);
     for (const item of e.evidence.slice(0, 3)) out.push(...wrap(s.dim(`      ${evidenceLine(item)}`), WIDTH, 8));
     if (e.evidence.length > 3) out.push(s.dim(`      and ${e.evidence.length - 3} more`));
   }
   if (code.unrequested.length) {
     out.push(`  Reached in code, not requested (${code.unrequested.length})`);
     for (const u of code.unrequested) {
-      out.push(...wrap(`    ${u.permissions.map(shortName).join(" or ")}`, WIDTH, 6));
+      out.push(...wrap(`    ${u.permissions.map(short).join(" or ")}`, WIDTH, 6));
       out.push(...wrap(s.dim(`      ${evidenceLine(u.evidence)}`), WIDTH, 8));
     }
   }

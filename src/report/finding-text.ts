@@ -9,8 +9,8 @@
  */
 import type { Finding, Level } from "../score/types.js";
 import { wrap, type Style } from "./style.js";
+import { short } from "./format.js";
 
-const short = (name: string) => name.replace(/^android\.permission\./, "");
 
 /** The verdict after the subject: `(warning: sensitive-uncommon)`, coloured by level on a terminal. */
 export function verdict(level: Level, checkId: string, s: Style): string {

@@ -5,8 +5,8 @@
 import type { BaselineFile } from "../baseline/baseline-file.js";
 import { TERM_DESCRIPTIONS, TERM_NAMES } from "../baseline/features.js";
 import { PLAIN, fit, wrap, type Style } from "./style.js";
+import { pct } from "./format.js";
 
-const pct = (x: number) => `${(100 * x).toFixed(1)}%`;
 
 export function baselineSummary(file: BaselineFile, outPath: string, s: Style = PLAIN): string {
   const out: string[] = [];
@@ -27,7 +27,7 @@ export function baselineSummary(file: BaselineFile, outPath: string, s: Style = 
     const e = file.era;
     out.push("", ...wrap(`  era: API ${e.api}${e.years ? ` (apps of ${e.years})` : ""}${e.permission ? `, the newest level among permissions with real support (${e.permission.replace(/^android\.permission\./, "")}, ${e.apps} apps)` : ""}; newer permissions are judged by what they replaced, or not at all`, 80, 4));
   }
-  out.push("", `  rates shrink toward the pooled rate (${p.prior.method === "fixed" ? `${p.prior.strength} pooled pseudo-apps` : `empirical-Bayes strength, capped at ${p.prior.strength}`}); uncommon: the ${pct(p.confidence)} Wilson interval lies below ${pct(p.uncommonBelow)}`);
+  out.push("", `  rates shrink toward the pooled rate (${p.prior.method === "fixed" ? `${p.prior.strength} pooled pseudo-apps` : `empirical-Bayes strength, capped at ${p.prior.strength}`}); uncommon: the ${pct(p.confidence, "fixed")} Wilson interval lies below ${pct(p.uncommonBelow, "fixed")}`);
   const m = file.model;
   if (!m) out.push("", s.bold("Risk model"), "  none: " + (file.provenance.notes[0] ?? "no labeled corpus"));
   else {
@@ -42,7 +42,7 @@ export function baselineSummary(file: BaselineFile, outPath: string, s: Style = 
     out.push(`  fit ${m.training.converged ? "converged" : s.warn("did not fully converge")} (KKT residual ${m.training.kktResidual.toExponential(1)}, ${m.training.iterations} iterations)`);
     const e = m.evaluation;
     const row = (name: string, r?: { auc: number; brier: number }) => (r ? `    ${fit(name, 38)} ${r.auc.toFixed(3).padStart(8)} ${Number.isFinite(r.brier) ? r.brier.toFixed(4).padStart(8) : "".padStart(8)}` : undefined);
-    out.push("", `  ${e.folds}-fold cross-validation (seed ${e.seed}, penalty chosen inside each fold), ${m.training.rows} rows, ${pct(e.baseRate)} flagged:`);
+    out.push("", `  ${e.folds}-fold cross-validation (seed ${e.seed}, penalty chosen inside each fold), ${m.training.rows} rows, ${pct(e.baseRate, "fixed")} flagged:`);
     out.push(s.dim(`    ${fit("score", 38)} ${"ROC AUC".padStart(8)} ${"Brier".padStart(8)}`));
     for (const line of [
       row("this model", e),
@@ -52,16 +52,16 @@ export function baselineSummary(file: BaselineFile, outPath: string, s: Style = 
       row("summed surprisal", e.references.surprisal),
       `    ${fit("always the base rate", 38)} ${"0.500".padStart(8)} ${e.brierOfBaseRate.toFixed(4).padStart(8)}`,
     ]) if (line) out.push(line);
-    const bands = (b?: Record<string, number>) => (b ? `; bands: ${["low", "elevated", "high"].map((k) => `${pct(b[k] ?? 0)} ${k}`).join(", ")}` : "");
+    const bands = (b?: Record<string, number>) => (b ? `; bands: ${["low", "elevated", "high"].map((k) => `${pct(b[k] ?? 0, "fixed")} ${k}`).join(", ")}` : "");
   out.push(`  ${e.distinctValues} distinct risk values over ${e.rows} rows${bands(e.bands)}`);
     for (const v of m.validation) {
-      out.push("", `  validation on ${v.name} (never seen in training): ${v.rows} rows, ${pct(v.baseRate)} flagged, ${pct(v.vocabularyOverlap)} of the vocabulary recorded`);
+      out.push("", `  validation on ${v.name} (never seen in training): ${v.rows} rows, ${pct(v.baseRate, "fixed")} flagged, ${pct(v.vocabularyOverlap, "fixed")} of the vocabulary recorded`);
       out.push(s.dim(`    ${fit("score", 38)} ${"ROC AUC".padStart(8)} ${"Brier".padStart(8)}`));
       for (const line of [row("this model", v), row("number of dangerous permissions", v.references.dangerousCount), row("number of permissions", v.references.permissionCount), row("summed surprisal (pooled)", v.references.surprisal)]) if (line) out.push(line);
       out.push(`    ${v.distinctValues} distinct risk values${bands(v.bands)}`);
     }
     out.push("", "  calibration by decile of predicted risk, ties kept together (predicted → observed, n):");
-    for (const b of e.calibration) out.push(`    ${pct(b.meanPredicted).padStart(6)} → ${pct(b.observed).padStart(6)}  (${b.n})`);
+    for (const b of e.calibration) out.push(`    ${pct(b.meanPredicted, "fixed").padStart(6)} → ${pct(b.observed, "fixed").padStart(6)}  (${b.n})`);
   }
   if (file.provenance.notes.length) {
     out.push("", s.bold("Notes"));

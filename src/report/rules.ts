@@ -2,8 +2,8 @@
 import type { Policy, PolicyRule } from "../score/policy/policy.js";
 import { TOOL_VERSION } from "../version.js";
 import { PLAIN, wrap, type Style } from "./style.js";
+import { short } from "./format.js";
 
-const short = (n: string) => n.replace(/^android\.permission\./, "");
 
 function what(r: PolicyRule): string {
   const where = [r.categories ? `only in ${r.categories.join(", ")}` : "", r.exceptCategories ? `except in ${r.exceptCategories.join(", ")}` : "", r.when ? `when the app declares ${declares(r.when)}` : "", r.unless ? `unless the app declares ${declares(r.unless)}` : ""].filter(Boolean).join("; ");

@@ -7,6 +7,7 @@ import type { Log, Result, ReportingDescriptor } from "sarif";
 import { policyCheckId } from "../score/policy/policy.js";
 import { CHECKS } from "../score/registry.js";
 import { TOOL_VERSION } from "../version.js";
+import { codeLookup } from "./messages.js";
 import { alsoMessages, messageOf, type CheckRun, type CheckRunInfo } from "./check.js";
 
 export function checkToSarif(runs: CheckRun[], info: CheckRunInfo): string {
@@ -46,7 +47,7 @@ export function checkToSarif(runs: CheckRun[], info: CheckRunInfo): string {
         ruleId: f.checkId,
         ruleIndex: rules.findIndex((r) => r.id === f.checkId),
         level: f.level,
-        message: { text: [`${f.subject}: ${messageOf(f)}`, ...alsoMessages(f).map((a) => `Also: ${a.message}`)].join(" ") },
+        message: { text: [`${f.subject}: ${messageOf(f, codeLookup(run.result.code))}`, ...alsoMessages(f).map((a) => `Also: ${a.message}`)].join(" ") },
         locations: [{ physicalLocation: physical, logicalLocations: [{ fullyQualifiedName: f.location.path, kind: "element" }] }],
         properties: { package: m.package, subject: f.subject },
       });

@@ -5,11 +5,34 @@ import { snippetFor, type TrimPlan } from "../score/trim/plan.js";
 import { TOOLS_NS } from "../extract/xml-tree.js";
 import { TOOL_VERSION } from "../version.js";
 import { messageOf } from "./check.js";
+import { codeLookup, wordFinding } from "./messages.js";
+import type { SafeReason } from "../score/trim/plan.js";
 import { findingLines, verdict } from "./finding-text.js";
 import { PLAIN, wrap, type Style } from "./style.js";
+import { pct, short } from "./format.js";
 
-const pct = (x: number) => `${(100 * x).toFixed(x < 0.1 ? 1 : 0)}%`;
-const short = (n: string) => n.replace(/^android\.permission\./, "");
+
+const SAFE_BECAUSE: Record<SafeReason, string> = {
+  "older-devices-keep-it": "older devices keep it, and newer ones ignore it at this target",
+  "ignored-at-target": "the platform ignores it at this target",
+  "not-granted-to-store-apps": "a store app is not granted it",
+  "nothing-without-foreground-location": "it grants nothing without foreground location",
+  "no-such-permission": "the platform defines no such permission",
+  "forbidden-by-policy": "a policy in force forbids it",
+  "not-seen-in-code": "the code reaches nothing the permission maps tie to it (not proof: reflection and native code are not seen)",
+  "nothing-in-manifest-needs-it": "no component, service type or declaration in the manifest needs it",
+  "nothing-in-manifest-needs-it-code-unread": "no component, service type or declaration in the manifest needs it (check the code before removing)",
+};
+
+/** Why acting on a candidate is safe, in words. */
+export function safeText(reasons: readonly SafeReason[]): string {
+  return reasons.map((r) => SAFE_BECAUSE[r]).join("; ");
+}
+
+/** A trim reason in words: its check's message for the permission. */
+function reasonText(permission: string, r: TrimPlan["candidates"][number]["reasons"][number]): string {
+  return wordFinding({ checkId: r.checkId, subject: permission, data: r.data });
+}
 
 export function trimToText(plan: TrimPlan, file: string, caution: string | undefined, s: Style = PLAIN): string {
   const out: string[] = [];
@@ -24,8 +47,8 @@ export function trimToText(plan: TrimPlan, file: string, caution: string | undef
     out.push("");
     const risk = plan.risk !== undefined && c.riskWithout !== undefined ? `  risk ${pct(plan.risk)} → ${pct(c.riskWithout)}` : "";
     out.push(`${String(i + 1).padStart(3)}. ${s.bold(short(c.permission))}${risk}`);
-    for (const r of c.reasons) out.push(...wrap(`     ${verdict(r.level, r.checkId, s)}${r.message ? ` ${r.message}` : ""}`, 80, 7).map((l) => s.dim(l)));
-    if (c.safe) out.push(...wrap(`     safe because ${c.safe}`, 80, 7).map((l) => s.dim(l)));
+    for (const r of c.reasons) out.push(...wrap(`     ${verdict(r.level, r.checkId, s)} ${reasonText(c.permission, r)}`, 80, 7).map((l) => s.dim(l)));
+    if (c.safe.length) out.push(...wrap(`     safe because ${safeText(c.safe)}`, 80, 7).map((l) => s.dim(l)));
     if (c.code?.status === "used") out.push(...wrap(`     code: ${codeStatusText("used", c.code.users)} — removing it breaks that code; --write leaves it unless --remove-used`, 80, 7).map((l) => s.warn(l)));
     else if (c.code) out.push(...wrap(`     code: ${codeStatusText(c.code.status)}`, 80, 7).map((l) => s.dim(l)));
     if (c.libraries?.length) out.push(...wrap(`     added by ${c.libraries.join(", ")}`, 80, 10));
@@ -53,7 +76,7 @@ export function trimToText(plan: TrimPlan, file: string, caution: string | undef
 }
 
 export function trimToJson(plan: TrimPlan, file: string): string {
-  return `${JSON.stringify({ tool: "overask", version: TOOL_VERSION, schemaVersion: 1, file, ...plan, candidates: plan.candidates.map((c) => ({ ...c, snippet: snippetFor(c) })) }, null, 2)}\n`;
+  return `${JSON.stringify({ tool: "overask", version: TOOL_VERSION, schemaVersion: 1, file, ...plan, candidates: plan.candidates.map((c) => ({ ...c, reasons: c.reasons.map((r) => ({ ...r, message: reasonText(c.permission, r) })), safe: safeText(c.safe), safeBecause: c.safe, snippet: snippetFor(c) })) }, null, 2)}\n`;
 }
 
 export function deltaToText(d: Delta, files: [string, string], caution: string | undefined, s: Style = PLAIN): string {
@@ -74,7 +97,8 @@ export function deltaToText(d: Delta, files: [string, string], caution: string |
   out.push("", s.bold(`Permissions removed (${d.removed.length})`));
   for (const r of d.removed) out.push(`  - ${short(r.permission)}${describe(r) ? s.dim(`  ${describe(r)}`) : ""}`);
   out.push("", s.bold(`Newly uncommon for the category (${d.newlyUncommon.length})`));
-  for (const f of d.newlyUncommon) out.push(...findingLines(f, messageOf(f), [], s));
+  const code = codeLookup(d.codeNow);
+  for (const f of d.newlyUncommon) out.push(...findingLines(f, wordFinding(f, code), [], s));
   if (d.newlyBroken.length) {
     out.push("", s.bold(`Policy rules newly broken (${d.newlyBroken.length})`));
     for (const f of d.newlyBroken) out.push(...findingLines(f, messageOf(f), [], s));
@@ -96,5 +120,5 @@ export function deltaToText(d: Delta, files: [string, string], caution: string |
 }
 
 export function deltaToJson(d: Delta, files: [string, string], caution: string | undefined): string {
-  return `${JSON.stringify({ tool: "overask", version: TOOL_VERSION, schemaVersion: 1, files, caution, ...d, newlyUncommon: d.newlyUncommon.map((f) => ({ ...f, message: messageOf(f) })), newlyBroken: d.newlyBroken.map((f) => ({ ...f, message: messageOf(f) })) }, null, 2)}\n`;
+  return `${JSON.stringify({ tool: "overask", version: TOOL_VERSION, schemaVersion: 1, files, caution, ...d, newlyUncommon: d.newlyUncommon.map((f) => ({ ...f, message: wordFinding(f, codeLookup(d.codeNow)) })), newlyBroken: d.newlyBroken.map((f) => ({ ...f, message: messageOf(f) })) }, null, 2)}\n`;
 }

@@ -1,7 +1,7 @@
 /**
  * `delta`: what changed between two versions of an app that a reviewer of an update needs to see.
  */
-import type { CodeEvidence, EvidenceItem } from "./code-evidence.js";
+import type { CodeEvidence, EvidenceItem, PermissionEvidence } from "./code-evidence.js";
 import { requestedPermissionNames } from "../extract/manifest/model.js";
 import type { CheckResult } from "./judge.js";
 import { checkIdsTagged } from "./registry.js";
@@ -47,6 +47,8 @@ export interface Delta {
   removed: PermissionChange[];
   /** Uncommon-permission findings of the new version that the old one did not have. */
   newlyUncommon: Finding[];
+  /** What the new version's code shows for those permissions, when its code was read. */
+  codeNow?: PermissionEvidence[];
   /** Special-access components that appeared or disappeared. */
   specialAccess: { added: Finding[]; removed: Finding[] };
   /** Policy rules the new version breaks and the old one did not. */
@@ -114,13 +116,15 @@ export function compareVersions(before: CheckResult, after: CheckResult): Delta 
   const oldSpecial = new Set(special(before).map(key));
   const newSpecial = new Set(special(after).map(key));
   const wasExported = new Set(before.manifest.components.filter((c) => c.effectiveExported).map((c) => `${c.kind} ${c.name}`));
+  const newlyUncommon = after.findings.filter((f) => RATE_CHECKS.has(f.checkId) && !oldRate.has(f.subject));
   return {
     before: version(before),
     after: version(after),
     samePackage: before.manifest.package === after.manifest.package,
     added: [...now].filter((p) => !old.has(p)).sort().map((p) => change(after, p)),
     removed: [...old].filter((p) => !now.has(p)).sort().map((p) => change(before, p)),
-    newlyUncommon: after.findings.filter((f) => RATE_CHECKS.has(f.checkId) && !oldRate.has(f.subject)),
+    newlyUncommon,
+    ...(after.code?.read.length && newlyUncommon.length ? { codeNow: after.code.permissions.filter((e) => newlyUncommon.some((f) => f.subject === e.permission)) } : {}),
     specialAccess: {
       added: special(after).filter((f) => !oldSpecial.has(key(f))),
       removed: special(before).filter((f) => !newSpecial.has(key(f))),

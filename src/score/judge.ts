@@ -3,13 +3,14 @@
  * in, a result out; the CLI does the reading and the printing.
  */
 import { compareText } from "../util/compare.js";
-import type { CodeEvidence } from "./code-evidence.js";
+import { codeEvidence, type CodeEvidence } from "./code-evidence.js";
+import type { DexInput } from "../extract/code.js";
 import type { BaselineFile } from "../baseline/baseline-file.js";
 import { baselineOf } from "../baseline/baseline-file.js";
 import type { Baseline, PermissionRate } from "../baseline/rates.js";
 import { requestedPermissionNames, type Manifest } from "../extract/manifest/model.js";
 import { chooseCategory, type CategoryChoice } from "./category.js";
-import { isOwnPermission, judgeFrequency } from "./frequency.js";
+import { isOwnPermission, judgeFrequency } from "../baseline/judged.js";
 import { evaluatePolicy, type Policy } from "./policy/policy.js";
 import { CHECKS, checkIdsTagged } from "./registry.js";
 import { CACHE_LIMIT, RiskScorer, type RiskEstimate } from "./risk.js";
@@ -34,7 +35,7 @@ export interface CheckResult {
   /** The baseline's era, and whether the app targets a newer platform than the corpus could speak for. */
   era?: { api: number; targetNewer: boolean };
   risk?: RiskEstimate;
-  /** Code evidence the checks were given (`JudgeOptions.code`). */
+  /** Code evidence, when the app's dex code was given (`JudgeOptions.dexes`). */
   code?: CodeEvidence;
 }
 
@@ -47,8 +48,11 @@ export interface JudgeOptions {
   prevalence?: number;
   /** Policies whose rules are evaluated beside the checks (`--policy`). */
   policies?: readonly Policy[];
-  /** Code evidence read from the app's dex (ops layer); absent: no code checks, no code notes. */
-  code?: CodeEvidence;
+  /**
+   * The app's dex code as the reader found it (extract/code.ts): judging turns it into code evidence.
+   * Absent or empty (a bare manifest, `--no-code`): no code checks, no code notes.
+   */
+  dexes?: readonly DexInput[];
 }
 
 /** A baseline prepared for judging many apps: rates memoized per category and permission. */
@@ -77,7 +81,8 @@ export class Judge {
     const category = chooseCategory(manifest, this.baseline, { category: options.category, index: options.categoryIndex });
     const rateCategory = category.category ?? category.requested;
     const rate = (p: string) => this.rate(rateCategory, p);
-    const ctx = { manifest, baseline: this.baseline, category, rate, frequency: (p: string) => judgeFrequency(manifest, this.baseline, category.category, p, rate), ...(options.code ? { code: options.code } : {}) };
+    const code = options.dexes?.length ? codeEvidence(manifest, options.dexes) : undefined;
+    const ctx = { manifest, baseline: this.baseline, category, rate, frequency: (p: string) => judgeFrequency(manifest, this.baseline, category.category, p, rate), ...(code ? { code } : {}) };
     const raw: Finding[] = [];
     for (const check of CHECKS) {
       const level = options.levels?.get(check.meta.id) ?? check.meta.defaultLevel;
@@ -85,14 +90,6 @@ export class Judge {
       for (const f of check.run(ctx)) raw.push({ checkId: check.meta.id, level, ...f });
     }
     const findings = foldByPermission(raw);
-    // Permission findings say what the code shows for the permission, beside how common it is.
-    if (options.code?.read.length) {
-      const byPermission = new Map(options.code.permissions.map((e) => [e.permission, e]));
-      for (const f of findings) {
-        const e = byPermission.get(f.subject);
-        if (e && f.checkId !== "not-seen-in-code") f.data = { ...f.data, code: e.status, ...(e.users.length ? { codeUsers: e.users, codeOnlyLibraries: e.onlyLibraries } : {}) };
-      }
-    }
     findings.sort((a, b) => levelRank(b.level) - levelRank(a.level) || compareText(a.checkId, b.checkId) || compareText(a.subject, b.subject));
     const requested = requestedPermissionNames(manifest);
     const notJudged: NotJudged[] = [];
@@ -102,7 +99,7 @@ export class Judge {
       else if (j.kind === "made-explicit") notJudged.push({ permission: p, why: "made-explicit", addedIn: j.addedIn, note: j.lineage.note });
       else if (j.kind === "no-evidence") notJudged.push({ permission: p, why: "no-evidence", addedIn: j.addedIn });
     }
-    const result: CheckResult = { manifest, category, findings, notJudged, ...(options.code ? { code: options.code } : {}) };
+    const result: CheckResult = { manifest, category, findings, notJudged, ...(code ? { code } : {}) };
     if (this.baseline.era !== undefined) result.era = { api: this.baseline.era, targetNewer: (manifest.targetSdk ?? 0) > this.baseline.era };
     // The app's own permissions say nothing about it against other apps: the risk leaves them out too.
     if (this.scorer) result.risk = this.scorer.estimate(category.category, requested.filter((p) => !isOwnPermission(manifest, p)), options.prevalence);

@@ -12,7 +12,7 @@ import { ungrantablePermission } from "./checks/ungrantable-permission.js";
 import { unknownPermission } from "./checks/unknown-permission.js";
 import { weakCustomPermission } from "./checks/weak-custom-permission.js";
 import { weakGuard } from "./checks/weak-guard.js";
-import type { Check, CheckTag, Finding } from "./types.js";
+import type { Check, CheckTag } from "./types.js";
 
 export const CHECKS: readonly Check[] = [
   backgroundLocationAlone,
@@ -32,15 +32,6 @@ export const CHECKS: readonly Check[] = [
 
 export function checkById(id: string): Check | undefined {
   return CHECKS.find((c) => c.meta.id === id);
-}
-
-/**
- * A finding in words: its check's message, or for a policy rule's finding (`policy:<rule>`) the rule's own
- * message with where the rule is.
- */
-export function wordFinding(f: Pick<Finding, "checkId" | "subject" | "data">): string {
-  if (f.checkId.startsWith("policy:")) return `${f.data.message} (rule ${f.data.rule} of ${f.data.policy}, ${f.data.file}:${f.data.line})`;
-  return checkById(f.checkId)?.message(f) ?? f.checkId;
 }
 
 /** The ids of the checks carrying `tag`. */

@@ -5,7 +5,8 @@
  */
 import { requestedPermissionNames } from "../extract/manifest/model.js";
 import { isSensitive } from "../platform/sensitivity.js";
-import { judgeFrequency } from "./frequency.js";
+import { judgeFrequency } from "../baseline/judged.js";
+import { reportedByAnotherCheck } from "./uncommon.js";
 import type { CheckResult, Judge } from "./judge.js";
 
 export interface RequestedRate {
@@ -31,6 +32,6 @@ export function requestedRates(judge: Judge, result: CheckResult): RequestedRate
     const base = { permission: p, sensitive: isSensitive(p) };
     if (j.kind !== "rate") return { ...base, notJudged: j.kind };
     const r = j.rate;
-    return { ...base, k: r.k, n: r.n, lower: r.lower, upper: r.upper, uncommon: r.uncommon, ...(j.judgedBy ? { judgedBy: j.judgedBy.permission } : {}) };
+    return { ...base, k: r.k, n: r.n, lower: r.lower, upper: r.upper, uncommon: r.uncommon && !reportedByAnotherCheck(p), ...(j.judgedBy ? { judgedBy: j.judgedBy.permission } : {}) };
   });
 }

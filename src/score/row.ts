@@ -7,10 +7,7 @@
 import { requestedPermissionNames } from "../extract/manifest/model.js";
 import type { CodeEvidence, PermissionEvidence } from "./code-evidence.js";
 import type { CheckResult } from "./judge.js";
-import { wordFinding } from "./registry.js";
-import type { Finding, Level } from "./types.js";
-
-export const ROW_SCHEMA_VERSION = 1;
+import type { Finding, FindingData, Level } from "./types.js";
 
 /** What identifies an input across runs. */
 export interface RowKey {
@@ -33,13 +30,27 @@ export interface AppRow extends RowKey {
   /** Atypicality percentile among the baseline's apps of the category (no labels involved). */
   atypicality?: number;
   counts?: Record<Level, number>;
-  /** Each finding with its message (rows read back from CSV carry none). */
-  findings?: { checkId: string; level: Level; subject: string; message?: string }[];
+  /** Each finding with its data; the output adds its message (report/rows.ts); rows read back from CSV carry neither. */
+  findings?: RowFinding[];
   whatIf?: { permission: string; without: number }[];
   permissions?: string[];
   /** Code evidence, when the app's code was read (archives, unless `--no-code`). */
   code?: RowCode;
   error?: { kind: string; message: string };
+}
+
+/** A finding as a row holds it: data for the formatters to word. */
+export interface RowFinding {
+  checkId: string;
+  level: Level;
+  subject: string;
+  data?: FindingData;
+  /** Other checks' reasons on the same permission (Finding.also). */
+  also?: { checkId: string; level: Level; data: FindingData }[];
+  /** What the app's code shows for the permission concerned, when its code was read. */
+  code?: Pick<PermissionEvidence, "status" | "users" | "onlyLibraries">;
+  /** The finding in words, as the output file has it (report/rows.ts adds it). */
+  message?: string;
 }
 
 /** A row's code evidence: requested permissions by what the code shows, sorted. */
@@ -65,11 +76,17 @@ export function rowCode(code: CodeEvidence): RowCode {
   };
 }
 
-/** A finding's message, with the reasons folded into it (`also`), worded by their checks. */
-function messageWithAlso(f: Finding): string {
-  const word = (checkId: string, data: Finding["data"]) => wordFinding({ checkId, subject: f.subject, data });
-  // " — also (check): …": a message need not end in a full stop, so the reasons are set apart plainly.
-  return [word(f.checkId, f.data), ...(f.also ?? []).map((a) => `also (${a.checkId}): ${word(a.checkId, a.data)}`)].join(" — ");
+/** A judged finding as row data, with the code's word on its permission when the code was read. */
+function rowFinding(f: Finding, code: CheckResult["code"]): RowFinding {
+  const e = code?.read.length ? code.permissions.find((p) => p.permission === f.subject) : undefined;
+  return {
+    checkId: f.checkId,
+    level: f.level,
+    subject: f.subject,
+    data: f.data,
+    ...(f.also ? { also: f.also } : {}),
+    ...(e ? { code: { status: e.status, users: e.users, onlyLibraries: e.onlyLibraries } } : {}),
+  };
 }
 
 /** The row of a judged app. */
@@ -88,7 +105,7 @@ export function rowOf(key: RowKey, r: CheckResult): AppRow {
     ...(r.category.category ? { category: r.category.category } : {}),
     ...(r.category.fallback ? { fallback: r.category.fallback } : {}),
     counts,
-    findings: r.findings.map((f) => ({ checkId: f.checkId, level: f.level, subject: f.subject, message: messageWithAlso(f) })),
+    findings: r.findings.map((f) => rowFinding(f, r.code)),
     permissions: requestedPermissionNames(m).sort(),
     ...(r.code ? { code: rowCode(r.code) } : {}),
   };

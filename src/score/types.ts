@@ -6,7 +6,7 @@ import type { Baseline, PermissionRate } from "../baseline/rates.js";
 import type { Manifest, SourceLocation } from "../extract/manifest/model.js";
 import type { CategoryChoice } from "./category.js";
 import type { CodeEvidence } from "./code-evidence.js";
-import type { FrequencyJudgement } from "./frequency.js";
+import type { FrequencyJudgement } from "../baseline/judged.js";
 
 /** SARIF's levels, most severe first. */
 export const LEVELS = ["error", "warning", "note"] as const;
@@ -66,6 +66,4 @@ export interface Finding {
 export interface Check {
   meta: CheckMeta;
   run(ctx: CheckContext): Omit<Finding, "level" | "checkId">[];
-  /** Words the message from the finding's data. */
-  message(f: Pick<Finding, "subject" | "data">): string;
 }

@@ -3,7 +3,7 @@
  * it. A bad file becomes a failed row, never an exception.
  */
 import { InputError } from "../../errors.js";
-import { rowToCsv } from "../../report/csv.js";
+import { rowLine } from "../../report/rows.js";
 import type { Judge, JudgeOptions } from "../../score/judge.js";
 import type { Policy } from "../../score/policy/policy.js";
 import type { Level } from "../../score/types.js";
@@ -114,5 +114,5 @@ export function scoreToLine(judge: Judge, input: SweepInput, options: JudgeOptio
 
 /** A row as the output file gets it (one line, no newline), with its summary fields. */
 export function scoredLine(row: AppRow, format: SweepFormat): ScoredLine {
-  return { ...briefOf(row), line: format === "jsonl" ? JSON.stringify(row) : rowToCsv(row).slice(0, -1) };
+  return { ...briefOf(row), line: rowLine(row, format) };
 }

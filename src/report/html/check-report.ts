@@ -9,17 +9,17 @@ import type { NotJudged } from "../../score/judge.js";
 import type { RequestedRate } from "../../score/requested.js";
 import type { Level } from "../../score/types.js";
 import { TOOL_VERSION } from "../../version.js";
+import { codeLookup } from "../messages.js";
 import { alsoMessages, categoryText, messageOf, notJudgedText, type CheckRun, type CheckRunInfo } from "../check.js";
 import { CHECK_PAGE_CSS } from "./generated/page-assets.js";
 import { esc, pageShell } from "./page-shell.js";
+import { pct, short } from "../format.js";
 
 export interface HtmlCheckRun extends CheckRun {
   /** Every requested permission with its category rate (score/requested.ts). */
   rates?: RequestedRate[];
 }
 
-const pct = (x: number) => `${(100 * x).toFixed(x < 0.01 ? 2 : x < 0.1 ? 1 : 0)}%`;
-const short = (n: string) => n.replace(/^android\.permission\./, "");
 
 
 const LEVEL_TITLES: Record<Level, string> = { error: "Errors", warning: "Warnings", note: "Notes" };
@@ -30,7 +30,7 @@ function bar(r: RequestedRate, threshold: number): string {
   // One square-root scale from 0 to 100% for every bar, so that the threshold mark stands in the same place
   // and rare rates (the interesting ones) still show.
   const w = (x: number) => `${(100 * Math.sqrt(Math.min(1, x))).toFixed(1)}%`;
-  return `<div class="bar${r.uncommon ? " uncommon" : ""}" role="img" aria-label="${esc(`${pct(share)} of apps; threshold ${pct(threshold)}`)}"><div class="fill" style="width:${w(share)}"></div><div class="mark" style="left:${w(threshold)}" title="threshold ${pct(threshold)}"></div></div>`;
+  return `<div class="bar${r.uncommon ? " uncommon" : ""}" role="img" aria-label="${esc(`${pct(share, "rate")} of apps; threshold ${pct(threshold, "rate")}`)}"><div class="fill" style="width:${w(share)}"></div><div class="mark" style="left:${w(threshold)}" title="threshold ${pct(threshold, "rate")}"></div></div>`;
 }
 
 function appSection(run: HtmlCheckRun, info: CheckRunInfo & { threshold: number }, index: number): string {
@@ -60,7 +60,7 @@ function appSection(run: HtmlCheckRun, info: CheckRunInfo & { threshold: number 
     out.push(`<h4 class="lvl-${level}">${LEVEL_TITLES[level]} (${group.length})</h4><ul class="findings">`);
     for (const f of group) {
       out.push(`<li><span class="subject">${esc(short(f.subject))}</span><span class="verdict">(<span class="lvl-${level}">${level}</span>: ${esc(f.checkId)})</span>`);
-      out.push(`<div class="message">${esc(messageOf(f))}</div>`);
+      out.push(`<div class="message">${esc(messageOf(f, codeLookup(r.code)))}</div>`);
       for (const a of alsoMessages(f)) out.push(`<div class="also">also (${esc(a.checkId)}): ${esc(a.message)}</div>`);
       out.push("</li>");
     }
@@ -69,14 +69,14 @@ function appSection(run: HtmlCheckRun, info: CheckRunInfo & { threshold: number 
   const rates = run.rates ?? [];
   out.push(`<h3>Requested permissions (${rates.length})</h3>`);
   if (rates.length) {
-    out.push(`<p class="legend">The bar is the share of the category's apps in the baseline that request the permission; the black mark is the "uncommon" threshold (${pct(info.threshold)}); red bars are uncommon. Square-root scale from 0 to 100%.</p>`);
+    out.push(`<p class="legend">The bar is the share of the category's apps in the baseline that request the permission; the black mark is the "uncommon" threshold (${pct(info.threshold, "rate")}); red bars are uncommon. Square-root scale from 0 to 100%.</p>`);
     out.push(`<table class="perms"><thead><tr><th>Permission</th><th>Apps of the category</th><th class="num">Share</th><th>Rate against the threshold</th></tr></thead><tbody>`);
     const reasons = new Map(r.notJudged.map((n): [string, NotJudged] => [n.permission, n]));
     for (const p of rates) {
       const judged = p.k !== undefined && p.n !== undefined;
       const note = p.judgedBy ? `<div class="legend">judged by ${esc(short(p.judgedBy))}, which it replaced</div>` : "";
       const name = `${esc(short(p.permission))}${p.sensitive ? ' <span class="sensitive">sensitive</span>' : ""}${note}`;
-      if (judged) out.push(`<tr><td>${name}</td><td class="num">${p.k} of ${p.n}</td><td class="num">${pct(p.k! / p.n!)}</td><td>${bar(p, info.threshold)}</td></tr>`);
+      if (judged) out.push(`<tr><td>${name}</td><td class="num">${p.k} of ${p.n}</td><td class="num">${pct(p.k! / p.n!, "rate")}</td><td>${bar(p, info.threshold)}</td></tr>`);
       else out.push(`<tr><td>${name}</td><td colspan="3" class="legend">${esc(notJudgedText(reasons.get(p.permission) ?? { permission: p.permission, why: p.notJudged! }, r.era?.api))}</td></tr>`);
     }
     out.push("</tbody></table>");

@@ -24,5 +24,4 @@ export const backgroundLocationAlone: Check = {
     const el = ctx.manifest.usesPermissions.find((p) => p.name === BACKGROUND)!;
     return [{ subject: BACKGROUND, location: el.source, data: {} }];
   },
-  message: () => "requested without ACCESS_FINE_LOCATION or ACCESS_COARSE_LOCATION: background location extends one of those and grants nothing on its own",
 };

@@ -19,5 +19,4 @@ export const exportedMissing: Check = {
       .filter((c) => c.exportedReason === "missing-at-target-31")
       .map((c) => ({ subject: c.name, location: c.source, data: { kind: c.kind, targetSdk: ctx.manifest.targetSdk } }));
   },
-  message: (f) => `${f.data.kind} has an intent filter but no android:exported: at targetSdk ${f.data.targetSdk} the platform refuses to install the app; set android:exported="false" (or "true" if other apps must reach it)`,
 };

@@ -22,5 +22,4 @@ export const exportedUnguarded: Check = {
       .filter((c) => !c.permission && !(c.kind === "provider" && (c.readPermission || c.writePermission)))
       .map((c) => ({ subject: c.name, location: c.source, data: { kind: c.kind, reason: c.exportedReason } }));
   },
-  message: (f) => `${f.data.kind} reachable by any app without a permission (${f.data.reason === "explicit" ? 'android:exported="true"' : "exported by default because of its intent filter, targetSdk below 31"})`,
 };

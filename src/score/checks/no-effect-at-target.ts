@@ -6,7 +6,6 @@
 import { noEffectAt, stillUsedBelow } from "../../platform/sdk-facts.js";
 import type { Check } from "../types.js";
 
-const short = (n: string) => n.replace(/^android\.permission\./, "");
 
 export const noEffectAtTarget: Check = {
   meta: {
@@ -28,13 +27,5 @@ export const noEffectAtTarget: Check = {
       const data = { targetSdk: target, minSdk: m.minSdk, why: fact.why, instead: fact.instead, source: fact.source, ...(below !== undefined ? { stillUsedBelow: below, limitTo: below - 1 } : {}) };
       return [{ subject: p.name, location: p.source, data }];
     });
-  },
-  message(f) {
-    const d = f.data as { targetSdk: number; minSdk?: number; why: string; instead?: string[]; stillUsedBelow?: number; limitTo?: number };
-    const instead = d.instead?.length ? `; request ${d.instead.map(short).join(" / ")} instead` : "";
-    if (d.stillUsedBelow !== undefined) {
-      return `no effect on Android API ${d.stillUsedBelow} and later at targetSdk ${d.targetSdk} (${d.why}); still used on devices from minSdk ${d.minSdk ?? 1} to API ${d.stillUsedBelow - 1}: limit it with android:maxSdkVersion="${d.limitTo}"`;
-    }
-    return `no effect at targetSdk ${d.targetSdk}: ${d.why}${instead}`;
   },
 };

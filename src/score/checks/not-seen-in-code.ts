@@ -5,7 +5,7 @@
  * for permissions their code never used. Not proof: reflection, native code, dynamically loaded code and
  * APIs outside the maps are not seen, so the level is note.
  */
-import { isOwnPermission } from "../frequency.js";
+import { isOwnPermission } from "../../baseline/judged.js";
 import type { Check } from "../types.js";
 
 export const notSeenInCode: Check = {
@@ -28,6 +28,4 @@ export const notSeenInCode: Check = {
     }
     return out;
   },
-  message: (f) =>
-    `nothing in the app's code (${f.data.dexFiles} dex ${f.data.dexFiles === 1 ? "file" : "files"}${f.data.partial ? ", some unreadable" : ""}) reaches an API the permission maps tie to it; reflection, native code, dynamically loaded code and APIs outside the maps are not seen`,
 };

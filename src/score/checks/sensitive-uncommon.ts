@@ -1,6 +1,6 @@
 /** sensitive-uncommon: like uncommon-for-category, for dangerous, app-op and restricted permissions. */
 import { isSensitive } from "../../platform/sensitivity.js";
-import { rateFindings, rateMessage } from "./rate-findings.js";
+import { rateFindings } from "./rate-findings.js";
 import type { Check } from "../types.js";
 
 export const sensitiveUncommon: Check = {
@@ -13,5 +13,4 @@ export const sensitiveUncommon: Check = {
     tags: ["rate", "trim"],
   },
   run: (ctx) => rateFindings(ctx, isSensitive),
-  message: rateMessage,
 };

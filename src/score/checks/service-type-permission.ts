@@ -35,6 +35,4 @@ export const serviceTypePermission: Check = {
       return missing.length ? [{ subject: c.name, location: c.source, data: { types: c.foregroundServiceType, missing, targetSdk: target } }] : [];
     });
   },
-  message: (f) =>
-    `foreground service of type ${(f.data.types as string[]).join("|")} at targetSdk ${f.data.targetSdk} needs ${(f.data.missing as string[]).map((p) => p.replace(/^android\.permission\./, "")).join(" and ")}, which the app does not request: starting it in the foreground fails`,
 };

@@ -41,5 +41,4 @@ export const specialAccessComponent: Check = {
       .filter((c) => c.permission !== undefined && SPECIAL_ACCESS[c.permission] !== undefined)
       .map((c) => ({ subject: c.name, location: c.source, data: { kind: c.kind, permission: c.permission, grants: SPECIAL_ACCESS[c.permission!] } }));
   },
-  message: (f) => `${f.data.kind} bound by ${String(f.data.permission).replace(/^android\.permission\./, "")}: ${f.data.grants}`,
 };

@@ -1,6 +1,6 @@
 /** uncommon-for-category: a requested permission few apps of the category request. */
 import { isSensitive } from "../../platform/sensitivity.js";
-import { rateFindings, rateMessage } from "./rate-findings.js";
+import { rateFindings } from "./rate-findings.js";
 import type { Check } from "../types.js";
 
 export const uncommonForCategory: Check = {
@@ -13,5 +13,4 @@ export const uncommonForCategory: Check = {
     tags: ["rate", "trim"],
   },
   run: (ctx) => rateFindings(ctx, (p) => !isSensitive(p)),
-  message: rateMessage,
 };

@@ -33,11 +33,4 @@ export const ungrantablePermission: Check = {
         data: { protectionLevel: p.facts.protectionLevel, role: p.facts.flags?.includes("role") ?? false, development: p.facts.flags?.includes("development") ?? false },
       }));
   },
-  message(f) {
-    const ways: string[] = [];
-    if (f.data.role) ways.push("an app the user chooses for a matching system role (default SMS app, dialer, assistant …) receives it");
-    if (f.data.development) ways.push("the user can grant it over adb (pm grant), as for development");
-    const base = `protection level ${f.data.protectionLevel}: only the platform or apps preinstalled and signed for it hold this`;
-    return ways.length ? `${base}; otherwise ${ways.join("; and ")}. A store app gets it no other way` : `${base}; a store app's request is ignored`;
-  },
 };

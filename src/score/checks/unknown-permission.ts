@@ -38,10 +38,4 @@ export const unknownPermission: Check = {
         return { subject: p.name, location: p.source, data: { nearest: near.name, distance: near.distance, likelyTypo: near.distance <= TYPO_DISTANCE } };
       });
   },
-  message(f) {
-    const d = f.data as { nearest: string; distance: number; likelyTypo: boolean };
-    return d.likelyTypo
-      ? `not a platform permission; likely a typo for ${d.nearest} (${d.distance} edit${d.distance === 1 ? "" : "s"} away), so the app does not get what it meant to ask for`
-      : "not defined by the platform (API 34): removed, misspelt, or from another platform version; it grants nothing";
-  },
 };

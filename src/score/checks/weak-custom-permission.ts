@@ -22,5 +22,4 @@ export const weakCustomPermission: Check = {
       });
     });
   },
-  message: (f) => `${f.data.kind} guarded by ${f.data.permission}, which this app declares as ${f.data.level}: any app can ${f.data.level === "normal" ? "get it at install" : "ask the user for it"}; signature would limit it to the developer's own apps`,
 };

@@ -28,8 +28,4 @@ export const weakGuard: Check = {
       return out;
     });
   },
-  message: (f) =>
-    f.data.weakness === "read-only-guard"
-      ? `provider guarded only for reading (android:readPermission ${f.data.permission}): any app can insert, update or delete through it; set android:writePermission or android:permission`
-      : `${f.data.kind} guarded by ${String(f.data.permission).replace(/^android\.permission\./, "")}, a normal-level platform permission: every app that asks gets it at install, so the guard keeps no one out`,
 };

@@ -6,9 +6,9 @@ import { requestedPermissionNames, type Manifest, type RequestedPermission } fro
 import type { CheckResult } from "../judge.js";
 import type { PermissionOrigin } from "../merge-report.js";
 import { serviceType } from "../../platform/foreground-services.js";
-import { isOwnPermission } from "../frequency.js";
-import { checkIdsTagged, wordFinding } from "../registry.js";
-import { levelRank, type Level } from "../types.js";
+import { isOwnPermission } from "../../baseline/judged.js";
+import { checkIdsTagged } from "../registry.js";
+import { levelRank, type FindingData, type Level } from "../types.js";
 
 const TRIM_CHECKS = checkIdsTagged("trim");
 
@@ -23,18 +23,30 @@ export type TrimAction =
 export interface TrimCandidate {
   permission: string;
   /** Check ids and levels that make it worth a look, most severe first. */
-  reasons: { checkId: string; level: Level; message?: string }[];
+  reasons: { checkId: string; level: Level; data: FindingData }[];
   action: TrimAction;
   /** The element in the given manifest, when it declares the request. */
   element?: RequestedPermission;
   /** Risk without this permission (when the baseline has a model). */
   riskWithout?: number;
   libraries?: string[];
-  /** Why removing (or limiting) it is safe, in words. */
-  safe: string;
+  /** Why removing (or limiting) it is safe (report/trim-delta.ts words each); empty when it is not. */
+  safe: SafeReason[];
   /** What the app's code shows for it, when the code was read (docs/code-evidence.md). */
   code?: { status: "used" | "not-seen" | "not-mappable"; users: string[] };
 }
+
+/** Why acting on a candidate is safe, one a reason. */
+export type SafeReason =
+  | "older-devices-keep-it"
+  | "ignored-at-target"
+  | "not-granted-to-store-apps"
+  | "nothing-without-foreground-location"
+  | "no-such-permission"
+  | "forbidden-by-policy"
+  | "not-seen-in-code"
+  | "nothing-in-manifest-needs-it"
+  | "nothing-in-manifest-needs-it-code-unread";
 
 export interface TrimPlan {
   package: string;
@@ -85,12 +97,12 @@ export function planTrim(
     if (!c) {
       const origin = options.origins?.get(f.subject);
       const fromLibrary = origin ? origin.libraries.length > 0 && !origin.app && !element : source !== undefined && !element;
-      c = { permission: f.subject, reasons: [], action: fromLibrary ? { kind: "merge-remove" } : { kind: "delete" }, safe: "" };
+      c = { permission: f.subject, reasons: [], action: fromLibrary ? { kind: "merge-remove" } : { kind: "delete" }, safe: [] };
       if (element) c.element = element;
       if (origin?.libraries.length) c.libraries = origin.libraries;
       byPermission.set(f.subject, c);
     }
-    c.reasons.push({ checkId: f.checkId, level: f.level, message: wordFinding(f) });
+    c.reasons.push({ checkId: f.checkId, level: f.level, data: f.data });
     if (f.checkId === "no-effect-at-target" && typeof f.data.limitTo === "number" && c.action.kind === "delete") {
       c.action = { kind: "limit", maxSdkVersion: f.data.limitTo };
     }
@@ -101,7 +113,7 @@ export function planTrim(
     const e = evidence.get(c.permission);
     if (e) c.code = { status: e.status, users: e.users };
     // A permission the code uses is not safe to remove, whatever else is said of it.
-    c.safe = e?.status === "used" ? "" : safety(c);
+    c.safe = e?.status === "used" ? [] : safety(c);
   }
   const requested = requestedPermissionNames(m);
   if (options.riskWithout) {
@@ -167,16 +179,16 @@ export function neededByManifest(m: Manifest): Map<string, string> {
 }
 
 /** Why acting on a candidate is safe, from its reasons. */
-function safety(c: TrimCandidate): string {
+function safety(c: TrimCandidate): SafeReason[] {
   const ids = new Set(c.reasons.map((r) => r.checkId));
-  const parts: string[] = [];
-  if (c.action.kind === "limit") parts.push("older devices keep it, and newer ones ignore it at this target");
-  else if (ids.has("no-effect-at-target")) parts.push("the platform ignores it at this target");
-  if (ids.has("ungrantable-permission")) parts.push("a store app is not granted it");
-  if (ids.has("background-location-alone")) parts.push("it grants nothing without foreground location");
-  if (ids.has("unknown-permission")) parts.push("the platform defines no such permission");
-  if ([...ids].some((i) => i.startsWith("policy:"))) parts.push("a policy in force forbids it");
-  if (ids.has("not-seen-in-code")) parts.push("the code reaches nothing the permission maps tie to it (not proof: reflection and native code are not seen)");
-  if (ids.has("sensitive-uncommon") || ids.has("uncommon-for-category")) parts.push(`no component, service type or declaration in the manifest needs it${c.code ? "" : " (check the code before removing)"}`);
-  return parts.join("; ");
+  const out: SafeReason[] = [];
+  if (c.action.kind === "limit") out.push("older-devices-keep-it");
+  else if (ids.has("no-effect-at-target")) out.push("ignored-at-target");
+  if (ids.has("ungrantable-permission")) out.push("not-granted-to-store-apps");
+  if (ids.has("background-location-alone")) out.push("nothing-without-foreground-location");
+  if (ids.has("unknown-permission")) out.push("no-such-permission");
+  if ([...ids].some((i) => i.startsWith("policy:"))) out.push("forbidden-by-policy");
+  if (ids.has("not-seen-in-code")) out.push("not-seen-in-code");
+  if (ids.has("sensitive-uncommon") || ids.has("uncommon-for-category")) out.push(c.code ? "nothing-in-manifest-needs-it" : "nothing-in-manifest-needs-it-code-unread");
+  return out;
 }

@@ -28,10 +28,10 @@ describe("no-effect-at-target", () => {
 
 describe("no-effect-at-target and minSdk", () => {
   it("says 'still used on older devices' and limits, while minSdk is below the change", async () => {
-    const { noEffectAtTarget } = await import("../../../src/score/checks/no-effect-at-target.js");
+    const { wordFinding } = await import("../../../src/report/messages.js");
     const low = findingsOf("no-effect-at-target", manifestText({ permissions: ["BLUETOOTH"], target: 34 }).replace('minSdkVersion="21"', 'minSdkVersion="26"'));
     expect(low[0].data).toMatchObject({ stillUsedBelow: 31, limitTo: 30 });
-    expect(noEffectAtTarget.message(low[0])).toMatch(/^no effect on Android API 31 and later at targetSdk 34 .* still used on devices from minSdk 26 to API 30: limit it with android:maxSdkVersion="30"/);
+    expect(wordFinding(low[0])).toMatch(/^no effect on Android API 31 and later at targetSdk 34 .* still used on devices from minSdk 26 to API 30: limit it with android:maxSdkVersion="30"/);
   });
 
   it("says 'no effect' and removes, once minSdk is past the change", () => {

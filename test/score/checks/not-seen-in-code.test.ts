@@ -4,16 +4,15 @@ import { describe, expect, it } from "vitest";
 import { readDexEntries } from "../../../src/extract/code.js";
 import { openArchiveBytes } from "../../../src/extract/containers/zip.js";
 import { readManifestBytes } from "../../../src/extract/read.js";
-import { codeEvidence } from "../../../src/score/code-evidence.js";
 import { defaultJudge as demoJudge } from "../../helpers/judge.js";
 import { APK_DIR } from "../../helpers/paths.js";
 
 function judgeApk(bytes: Uint8Array) {
   const manifest = readManifestBytes(bytes);
   const archive = openArchiveBytes(bytes);
-  const code = codeEvidence(manifest, readDexEntries(archive));
+  const dexes = readDexEntries(archive);
   archive.close();
-  return demoJudge.judge(manifest, { category: "TOOLS", code });
+  return demoJudge.judge(manifest, { category: "TOOLS", dexes });
 }
 
 const all = (r: ReturnType<typeof judgeApk>) => r.findings.flatMap((f) => [f, ...(f.also ?? []).map((a) => ({ ...f, ...a }))]);
@@ -31,10 +30,13 @@ describe("not-seen-in-code", () => {
     expect(all(r).find((f) => f.checkId === "not-seen-in-code")!.level).toBe("note");
   });
 
-  it("adds what the code shows to the permission's other findings", () => {
+  it("leaves the other findings as their checks made them; their message says what the code shows", async () => {
+    const { codeLookup, wordFinding } = await import("../../../src/report/messages.js");
     const r = judgeApk(bytes);
     const sms = r.findings.find((f) => f.subject === "android.permission.READ_SMS")!;
-    expect(sms.data).toMatchObject({ code: "used", codeUsers: ["org.example.beamtorch", "org.example.adnet"], codeOnlyLibraries: false });
+    expect(sms.data.code).toBeUndefined(); // no step rewrites another's findings
+    expect(wordFinding(sms, codeLookup(r.code))).toMatch(/ Code: used by org\.example\.beamtorch, org\.example\.adnet\.$/);
+    expect(wordFinding(sms)).not.toMatch(/Code:/);
   });
 
   it("says nothing when no dex could be read, or without code evidence", () => {

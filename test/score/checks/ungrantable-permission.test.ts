@@ -19,11 +19,11 @@ describe("ungrantable-permission", () => {
 
 describe("ungrantable-permission: the ways a store app can still get one", () => {
   it("says when a role gives it, or the user can grant it over adb, and keeps 'ignored' for the rest", async () => {
-    const { ungrantablePermission } = await import("../../../src/score/checks/ungrantable-permission.js");
+    const { wordFinding } = await import("../../../src/report/messages.js");
     // Flags from the platform table (API 34): WRITE_SECURE_SETTINGS is signature|privileged|development|role|installer,
     // READ_LOGS signature|privileged|development, INSTALL_PACKAGES signature|privileged.
     const f = findingsOf("ungrantable-permission", manifestText({ permissions: ["WRITE_SECURE_SETTINGS", "READ_LOGS", "INSTALL_PACKAGES"] }));
-    const msg = (p: string) => ungrantablePermission.message(f.find((x) => x.subject === `android.permission.${p}`)!);
+    const msg = (p: string) => wordFinding(f.find((x) => x.subject === `android.permission.${p}`)!);
     expect(msg("WRITE_SECURE_SETTINGS")).toMatch(/system role .* over adb/);
     expect(msg("READ_LOGS")).toMatch(/over adb/);
     expect(msg("READ_LOGS")).not.toMatch(/ignored/);

@@ -4,10 +4,10 @@
  * Compiled and inlined into the page at build time (scripts/gen.mjs); no network, no libraries.
  */
 import type { PageData, PageRow } from "../page-data.js";
+import { pct, short } from "../../format.js";
 
+const pctOrDash = (x: number | null | undefined) => (x == null ? "—" : pct(x));
 const data = JSON.parse(document.getElementById("data")!.textContent ?? "{}") as PageData;
-const pct = (x: number | null | undefined) => (x == null ? "—" : `${(100 * x).toFixed(x < 0.1 ? 1 : 0)}%`);
-const short = (p: string) => p.replace(/^android\.permission\./, "");
 const byId = <T extends HTMLElement = HTMLElement>(id: string) => document.getElementById(id) as T;
 
 function el(tag: string, attrs?: Record<string, string> | null, text?: string | null): HTMLElement {
@@ -74,9 +74,9 @@ function drawHistogram(): void {
   svg += "</svg>";
   byId("histogram").innerHTML = svg;
   let legend = "Risk estimate (x) and number of apps (y); dashed lines mark where the bands begin.";
-  if (cut.elevated != null) legend += ` Elevated from ${pct(cut.elevated)};`;
-  if (cut.high != null) legend += ` high from ${pct(cut.high)}.`;
-  if (data.baseRate != null) legend += ` Base rate of the labeled corpus: ${pct(data.baseRate)}.`;
+  if (cut.elevated != null) legend += ` Elevated from ${pctOrDash(cut.elevated)};`;
+  if (cut.high != null) legend += ` high from ${pctOrDash(cut.high)}.`;
+  if (data.baseRate != null) legend += ` Base rate of the labeled corpus: ${pctOrDash(data.baseRate)}.`;
   byId("histogram-legend").textContent = legend;
 }
 drawHistogram();
@@ -144,7 +144,7 @@ function render(): void {
     app.appendChild(el("div", { class: "legend" }, r.id));
     tr.appendChild(app);
     tr.appendChild(el("td", null, r.category || (r.status === "failed" ? "" : "pooled")));
-    tr.appendChild(el("td", { class: "num" }, pct(r.risk)));
+    tr.appendChild(el("td", { class: "num" }, pctOrDash(r.risk)));
     const b = el("td");
     b.appendChild(el("span", { class: `pill ${r.status === "failed" ? "failed" : r.band || ""}` }, r.status === "failed" ? "failed" : r.band || "—"));
     tr.appendChild(b);
@@ -168,7 +168,7 @@ function render(): void {
     if (r.whatIf.length) {
       td.appendChild(el("div", { class: "legend" }, "Without one permission:"));
       const ul2 = el("ul");
-      for (const w of r.whatIf) ul2.appendChild(el("li", null, `${short(w.permission)}: ${pct(r.risk)} → ${pct(w.without)}`));
+      for (const w of r.whatIf) ul2.appendChild(el("li", null, `${short(w.permission)}: ${pctOrDash(r.risk)} → ${pctOrDash(w.without)}`));
       td.appendChild(ul2);
     }
     if (r.code) {
@@ -227,10 +227,10 @@ function drawHeatmap(): void {
     tr.appendChild(el("th", null, `${short(p)} (${h.flaggedCounts[i]})`));
     for (const c of h.cells[i]) {
       const excess = Math.max(0, Math.min(1, (c.sweep - c.baseline) * 4));
-      const td = el("td", { title: `swept: ${pct(c.sweep)} of ${c.sweepN} · baseline: ${pct(c.baseline)} of ${c.baselineN}` });
+      const td = el("td", { title: `swept: ${pctOrDash(c.sweep)} of ${c.sweepN} · baseline: ${pctOrDash(c.baseline)} of ${c.baselineN}` });
       td.style.background = `rgba(178, 58, 58, ${(0.08 + 0.6 * excess).toFixed(2)})`;
-      td.appendChild(el("div", null, pct(c.sweep)));
-      td.appendChild(el("div", { class: "legend" }, pct(c.baseline)));
+      td.appendChild(el("div", null, pctOrDash(c.sweep)));
+      td.appendChild(el("div", { class: "legend" }, pctOrDash(c.baseline)));
       tr.appendChild(td);
     }
     body.appendChild(tr);

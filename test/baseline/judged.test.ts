@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { isOwnPermission } from "../../src/score/frequency.js";
+import { isOwnPermission } from "../../src/baseline/judged.js";
 import { defaultJudge, judgeText, manifestText } from "../helpers/judge.js";
 
 describe("the app's own permissions", () => {
