@@ -6,9 +6,12 @@
  * `<file>: <message>`.
  */
 
-/** Base class: the input (a file, bytes, a record) cannot be read as what it claims to be. */
-export class InputError extends Error {
-  override name = "InputError";
+/**
+ * Base of every error overask raises about something outside it: an input, an output, a queue. It names
+ * the file (or address) and, inside an archive, the entry, so the CLI prints one line for a person.
+ */
+export class OveraskError extends Error {
+  override name = "OveraskError";
   /** Path or label of the input concerned; set by whoever knows it (often the caller, after the fact). */
   file?: string;
   /** The archive entry concerned (`split_a.apk`, `feature/manifest/AndroidManifest.xml`), when inside one. */
@@ -28,9 +31,19 @@ export class InputError extends Error {
   }
 }
 
+/** Base class: the input (a file, bytes, a record) cannot be read as what it claims to be. */
+export class InputError extends OveraskError {
+  override name = "InputError";
+}
+
 /** The sweep's queue (Redis) cannot be reached or used; `file` is its address, shown without password. */
-export class QueueError extends InputError {
+export class QueueError extends OveraskError {
   override name = "QueueError";
+}
+
+/** An output file cannot be written (full disk, read-only or missing folder). */
+export class OutputError extends OveraskError {
+  override name = "OutputError";
 }
 
 /** The zip container is damaged, lies about itself or lacks the manifest. */
@@ -78,11 +91,6 @@ export class BaselineError extends InputError {
   override name = "BaselineError";
 }
 
-/** An output file cannot be written (full disk, read-only or missing folder). */
-export class OutputError extends InputError {
-  override name = "OutputError";
-}
-
 /** A length, count, size or depth read from the input exceeds a named limit. */
 export class LimitError extends InputError {
   override name = "LimitError";
@@ -107,12 +115,12 @@ export class UsageError extends Error {
 
 /** Attach a file name to an InputError that was raised without one (decoders do not know paths). */
 export function withFile<E>(error: E, file: string): E {
-  if (error instanceof InputError && error.file === undefined) error.file = file;
+  if (error instanceof OveraskError && error.file === undefined) error.file = file;
   return error;
 }
 
 /** Attach an archive entry name to an InputError raised while reading that entry (innermost entry wins). */
 export function withEntry<E>(error: E, entry: string): E {
-  if (error instanceof InputError) error.entry = error.entry === undefined ? entry : `${entry}: ${error.entry}`;
+  if (error instanceof OveraskError) error.entry = error.entry === undefined ? entry : `${entry}: ${error.entry}`;
   return error;
 }

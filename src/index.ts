@@ -45,7 +45,8 @@ export { heatmapData, type Heatmap } from "./score/heatmap.js";
 
 // Operations on files (what the CLI's commands call)
 export { facts } from "./ops/facts.js";
-export { checkFiles, checkRecords, readCategoryIndex, tripsGate, type Gates, type CheckOutcome, type RecordsOutcome } from "./ops/check.js";
+export { checkFiles, checkRecords, readCategoryIndex, type CheckOutcome, type RecordsOutcome } from "./ops/check.js";
+export { gatesOf, tripsGate, type Gates } from "./score/gates.js";
 export { trim, type TrimOptions, type TrimOutcome } from "./ops/trim.js";
 export { delta } from "./ops/delta.js";
 export { sweep, listInputs, parseShard, shardOf, scoreInput, readRows, type SweepOptions, type SweepSummary, type SweepInput } from "./ops/sweep/index.js";

@@ -5,6 +5,7 @@ import { checkFiles, checkRecords } from "../ops/check.js";
 import { checkToJson, checkToText } from "../report/check.js";
 import { checkToSarif } from "../report/sarif.js";
 import { pickStyle } from "../report/style.js";
+import { gatesOf } from "../score/gates.js";
 import type { Level } from "../score/types.js";
 import { EXIT } from "./exit-codes.js";
 import type { Io } from "./io.js";
@@ -25,7 +26,7 @@ export interface CheckCliOptions extends JudgingCliOptions {
 export async function checkCommand(files: string[], o: CheckCliOptions, io: Io): Promise<number> {
   const { judge, baselineName } = loadJudge(o.baseline);
   const options = judgeOptions(o, judge.baseline);
-  const gates = { ...(o.failOn ? { failOn: o.failOn } : {}), ...(o.maxRisk !== undefined ? { maxRisk: o.maxRisk } : {}) };
+  const gates = gatesOf(o);
 
   if (o.records && o.format !== "text" && o.format !== "json") throw new UsageError(`--records prints one JSON line per record; --format ${o.format} is not available with it`);
   if (o.records) {

@@ -4,7 +4,7 @@
  * load when their command runs, so that `--help` and `--version` start fast.
  */
 import { Command, CommanderError, Option } from "commander";
-import { InputError, UsageError } from "../errors.js";
+import { OutputError, OveraskError, UsageError } from "../errors.js";
 import { TOOL_VERSION } from "../version.js";
 import { EXIT, exitCodesHelp } from "./exit-codes.js";
 import { processIo, type Io } from "./io.js";
@@ -212,10 +212,11 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
       // --help and --version end here too, with code 0.
       return e.exitCode === 0 ? EXIT.OK : EXIT.USAGE;
     }
-    if (e instanceof InputError) {
+    if (e instanceof OveraskError) {
       io.stderr.write(`overask: ${e.describe()}\n`);
       if (debug && e.stack) io.stderr.write(`${e.stack}\n`);
-      return e.name === "OutputError" ? EXIT.OUTPUT : EXIT.INPUT;
+      // A queue that cannot be reached or used is an input the run could not read (exit-codes.ts).
+      return e instanceof OutputError ? EXIT.OUTPUT : EXIT.INPUT;
     }
     io.stderr.write(`overask: internal error: ${(e as Error)?.message ?? String(e)}${debug ? "" : " (rerun with --debug for details)"}\n`);
     if (debug && e instanceof Error && e.stack) io.stderr.write(`${e.stack}\n`);

@@ -4,6 +4,7 @@ import { loadJudge } from "../ops/baseline.js";
 import { parseQueueAddress } from "../ops/queue/address.js";
 import { sweep, type SweepSummary } from "../ops/sweep/sweep.js";
 import { sweepSummaryText } from "../report/sweep-summary.js";
+import { gatesOf } from "../score/gates.js";
 import type { Level } from "../score/types.js";
 import { EXIT } from "./exit-codes.js";
 import type { Io } from "./io.js";
@@ -38,7 +39,7 @@ export async function sweepCommand(source: string, o: SweepCliOptions, io: Io): 
     resume: o.resume === true,
     ...(o.shard ? { shard: o.shard } : {}),
     ...(o.html ? { html: o.html } : {}),
-    gates: { ...(o.failOn ? { failOn: o.failOn } : {}), ...(o.maxRisk !== undefined ? { maxRisk: o.maxRisk } : {}) },
+    gates: gatesOf(o),
   };
   let summary: SweepSummary;
   try {

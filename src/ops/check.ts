@@ -7,7 +7,7 @@ import type { CheckRun } from "../report/check.js";
 import { parseCategoryIndex } from "../score/category.js";
 import type { CheckResult, Judge, JudgeOptions } from "../score/judge.js";
 import { scoreRecord, type RecordScore } from "../score/records.js";
-import { levelRank, type Level } from "../score/types.js";
+import { tripsGate, worstOf, type Gates } from "../score/gates.js";
 import { openCorpusFile, type CorpusFileOptions } from "./corpus.js";
 import { readTextFile } from "./files.js";
 import { readAppFile } from "./read-manifest.js";
@@ -19,18 +19,9 @@ export function readCategoryIndex(path: string): Map<string, string> {
   return parseCategoryIndex(readTextFile(path, CorpusError), path);
 }
 
-export interface Gates {
-  /** A finding at or above this level fails the run. */
-  failOn?: Level;
-  /** A risk above this probability fails the run. */
-  maxRisk?: number;
-}
-
 /** Whether a judged app trips a gate. */
-export function tripsGate(result: CheckRun["result"], gates: Gates): boolean {
-  if (!result) return false;
-  if (gates.failOn !== undefined && result.findings.some((f) => levelRank(f.level) >= levelRank(gates.failOn!))) return true;
-  return gates.maxRisk !== undefined && result.risk !== undefined && result.risk.probability > gates.maxRisk;
+function tripsOn(result: CheckRun["result"], gates: Gates): boolean {
+  return result !== undefined && tripsGate({ worst: worstOf(result.findings.map((f) => f.level)), ...(result.risk ? { risk: result.risk.probability } : {}) }, gates);
 }
 
 export interface CheckOutcome {
@@ -68,7 +59,7 @@ export function checkFiles(judge: Judge, files: readonly string[], options: File
       failed = true;
     }
   }
-  return { runs, failed, gated: runs.some((r) => tripsGate(r.result, gates)) };
+  return { runs, failed, gated: runs.some((r) => tripsOn(r.result, gates)) };
 }
 
 export interface RecordsOutcome {
@@ -89,9 +80,9 @@ export async function checkRecords(judge: Judge, path: string, corpus: CorpusFil
   let gated = false;
   let records = 0;
   for await (const record of opened.records) {
-    const score = scoreRecord(judge, record, options.category);
+    const score = scoreRecord(judge, record, { ...(options.category ? { category: options.category } : {}), ...(options.levels ? { levels: options.levels } : {}) });
     records++;
-    if (gates.maxRisk !== undefined && score.risk !== undefined && score.risk > gates.maxRisk) gated = true;
+    if (tripsGate(score, gates)) gated = true;
     emit(score);
   }
   const rep = opened.report;

@@ -78,10 +78,11 @@ export function codeLookup(code: CodeEvidence | readonly PermissionEvidence[] | 
   return (p) => by.get(p);
 }
 
-const PERMISSION_CHECKS = checkIdsTagged("trim");
+/** The checks whose messages say what the code shows, beside how common the permission is. */
+const RATE_CHECKS = checkIdsTagged("rate");
 
 /**
- * A finding in words: its check's message (with what the code shows, for a permission finding, when the
+ * A finding in words: its check's message (with what the code shows, for an uncommon permission, when the
  * app's code was read), or for a policy rule's finding (`policy:<rule>`) the rule's own message with
  * where the rule is.
  */
@@ -90,6 +91,5 @@ export function wordFinding(f: Pick<Finding, "checkId" | "subject" | "data">, co
   const message = MESSAGES[f.checkId];
   if (!message) return f.checkId;
   const text = message(f);
-  // The code's word on a permission, beside how common it is (not-seen-in-code says it already).
-  return PERMISSION_CHECKS.has(f.checkId) && f.checkId !== "not-seen-in-code" ? `${text}${codeSuffix(code(f.subject))}` : text;
+  return RATE_CHECKS.has(f.checkId) ? `${text}${codeSuffix(code(f.subject))}` : text;
 }

@@ -11,8 +11,7 @@ import { InputError, OutputError } from "../../errors.js";
 import { csvHeader } from "../../report/csv.js";
 import type { SweepTotals } from "../../report/sweep-summary.js";
 import type { JudgeOptions } from "../../score/judge.js";
-import { levelRank } from "../../score/types.js";
-import type { Gates } from "../check.js";
+import { tripsGate, type Gates } from "../../score/gates.js";
 import type { AppRow } from "../../score/row.js";
 import { loadJudge, type LoadedJudge } from "../baseline.js";
 import { outputProblem } from "../files.js";
@@ -66,8 +65,7 @@ export class Tally {
     else this.failed++;
     if (r.band) this.byBand[r.band] = (this.byBand[r.band] ?? 0) + 1;
     if (r.fallback === "unknown-category") this.unknownCategory++;
-    const g = this.gates;
-    if ((g.failOn && r.worst && levelRank(r.worst) >= levelRank(g.failOn)) || (g.maxRisk !== undefined && r.risk !== undefined && r.risk > g.maxRisk)) this.gated++;
+    if (tripsGate(r, this.gates)) this.gated++;
     if (r.risk === undefined) return;
     const last = this.top[this.top.length - 1];
     if (this.top.length < TOP || r.risk > last.risk || (r.risk === last.risk && r.id < last.id)) {
