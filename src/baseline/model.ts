@@ -256,8 +256,8 @@ export function trainRiskModel(rows: readonly TrainingRow[], options: TrainingOp
     const free = fitRows(train, v, lambda, false, m);
     for (const k of REFERENCE_SCORES) {
       // One-feature logistic fit of each reference score, for its Brier score: an unbounded fit of one
-      // feature is what ml-logistic-regression does well (stats/logistic.ts).
-      const ref = fitLogistic(train.map((r) => [r.references[k]]), train.map((r) => r.label), { steps: 200, maxSteps: 3200 });
+      // feature, by the same fitter without bound or penalty (stats/logistic.ts).
+      const ref = fitLogistic(train.map((r) => [r.references[k]]), train.map((r) => r.label));
       rows.forEach((r, i) => {
         if (folds[i] === f) oofRef[k][i] = predictLogistic(ref, [r.references[k]]);
       });

@@ -6,7 +6,7 @@
 import type { Baseline, Fallback } from "../baseline/rates.js";
 import { CorpusError } from "../errors.js";
 import type { Manifest } from "../extract/manifest/model.js";
-import { splitCsvLine } from "../util/csv.js";
+import { indexRows } from "../util/csv.js";
 import { editDistance } from "../util/edit-distance.js";
 
 export interface CategoryChoice {
@@ -39,13 +39,10 @@ export const APP_CATEGORY_MATCHES: Record<string, string[]> = {
 /** Parses the text of a `package,category` CSV (header optional); `path` names it in errors. */
 export function parseCategoryIndex(text: string, path: string): Map<string, string> {
   const map = new Map<string, string>();
-  text.split(/\r?\n/).forEach((line, i) => {
-    if (!line.trim()) return;
-    const f = splitCsvLine(line);
-    if (!f || f.length < 2) throw new CorpusError(`line ${i + 1}: expected package,category`, { file: path });
-    if (i === 0 && f[0].trim().toLowerCase() === "package") return;
-    map.set(f[0].trim(), f[1].trim());
-  });
+  for (const { line, fields: f } of indexRows(text, "package")) {
+    if (!f || f.length < 2 || !f[0]) throw new CorpusError(`line ${line}: expected package,category`, { file: path });
+    map.set(f[0], f[1]);
+  }
   return map;
 }
 

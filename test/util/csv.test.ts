@@ -22,3 +22,21 @@ describe("csvCell", () => {
     expect(csvCell("line\nbreak")).toBe('"line\nbreak"');
   });
 });
+
+describe("index CSV lines", () => {
+  it("skip blank lines, comments and a header on line 1, and trim fields", async () => {
+    const { indexRows } = await import("../../src/util/csv.js");
+    const text = "File,Category\n\n# the shop's apps\n apps/a.apk , TOOLS \n\"apps/b,c.apk\",GAMES\n\"broken,x\n";
+    expect([...indexRows(text, "file")]).toEqual([
+      { line: 4, fields: ["apps/a.apk", "TOOLS"] },
+      { line: 5, fields: ["apps/b,c.apk", "GAMES"] },
+      { line: 6 },
+    ]);
+  });
+
+  it("keep a first line that is not the header", async () => {
+    const { indexLine } = await import("../../src/util/csv.js");
+    expect(indexLine("org.example.a,TOOLS", 1, "package")).toEqual({ kind: "row", fields: ["org.example.a", "TOOLS"] });
+    expect(indexLine("package,category", 2, "package")).toEqual({ kind: "row", fields: ["package", "category"] });
+  });
+});

@@ -80,15 +80,18 @@ const WIDTH = new Uint8Array(256);
   WIDTH[0xfa] = 4; WIDTH[0xfb] = 4; WIDTH[0xfc] = 3; WIDTH[0xfd] = 3; WIDTH[0xfe] = 2; WIDTH[0xff] = 2;
 })();
 
-function uleb(r: ByteReader, at: { p: number }, what: string): number {
-  const first = r.bytes[at.p];
+/**
+ * One unsigned LEB128 value at `at.p` (dex format, "LEB128"): at most 5 bytes for 32 bits; `at.p` moves past
+ * it. The one-byte case, most of a dex's values, returns at once. The one ULEB128 reader of the dex code.
+ */
+function uleb(bytes: Uint8Array, at: { p: number }, what: string): number {
+  const first = bytes[at.p];
   // (Past the end, `first` is undefined: the comparison fails and the checked loop below says so.)
   if (first < 0x80) {
     at.p++;
     return first;
   }
   let v = 0;
-  const bytes = r.bytes;
   for (let shift = 0; shift < 35; shift += 7) {
     if (at.p >= bytes.length) throw new DexError(`${what}: a ULEB128 value runs past the end of the file at offset ${at.p}`);
     const b = bytes[at.p++];
@@ -156,18 +159,11 @@ export function readDex(bytes: Uint8Array): DexFile {
   const bytesLength = bytes.length;
   const maxLength = LIMITS.MAX_STRING_LENGTH;
   const sv = r.view;
+  const at = { p: 0 };
   for (let i = 0; i < strT.size; i++) {
-    let p = sv.getUint32(strT.off + 4 * i, true); // inside the table, checked by table()
-    let units = 0;
-    let shift = 0;
-    for (;;) {
-      if (p >= bytesLength) throw new DexError(`string length at ${p} runs past the end of the file`);
-      const b = bytes[p++];
-      units += (b & 0x7f) * 2 ** shift;
-      if (b < 0x80) break;
-      shift += 7;
-      if (shift >= 35) throw new DexError(`string length: a ULEB128 value runs past 5 bytes at offset ${p}`);
-    }
+    at.p = sv.getUint32(strT.off + 4 * i, true); // inside the table, checked by table()
+    const units = uleb(bytes, at, "string length");
+    const p = at.p;
     if (units > maxLength) checkLimit("MAX_STRING_LENGTH", units, "dex string declares a length of");
     if (p + units > bytesLength) throw new DexError(`string data at ${p} runs past the end of the file`);
     starts[i] = p;
@@ -240,15 +236,7 @@ export function readDex(bytes: Uint8Array): DexFile {
     const refs = newRefs(i + 1);
     if (dataOff) {
       const at = { p: dataOff };
-      // ULEB128 values, one byte each in the common case: read inline, the rest by uleb() with its checks.
-      const next = (what: string): number => {
-        const b = bytes[at.p];
-        if (b < 0x80) {
-          at.p++;
-          return b;
-        }
-        return uleb(r, at, what);
-      };
+      const next = (what: string): number => uleb(bytes, at, what);
       const counts = [next("class_data"), next("class_data"), next("class_data"), next("class_data")];
       for (const n of counts) checkLimit("MAX_DEX_IDS", n, "dex class data declares a member count of");
       // Fields carry (field_idx_diff, access_flags); methods add code_off.

@@ -5,7 +5,7 @@
  */
 import { closeSync, openSync, readFileSync, readSync, readdirSync, statSync } from "node:fs";
 import { join, relative, resolve, dirname, sep } from "node:path";
-import { splitCsvLine } from "../../util/csv.js";
+import { indexRows } from "../../util/csv.js";
 import { InputError, UsageError } from "../../errors.js";
 import { decodeBinaryXml } from "../../extract/binary/binary-xml.js";
 import { DETECT_BYTES, detectKind } from "../../extract/detect.js";
@@ -143,15 +143,18 @@ export function listInputs(source: string, report: WalkReport = { notManifests: 
     out.push({ id: source, file: source, size: st.size, mtimeMs: Math.round(st.mtimeMs) });
   } else {
     const base = dirname(source);
-    const lines = readFileSync(source, "utf8").split(/\r?\n/).map((l) => l.trim()).filter((l) => l && !l.startsWith("#"));
-    lines.forEach((line, i) => {
-      if (kind === "index") {
-        const f = splitCsvLine(line);
-        if (i === 0 && f?.[0]?.trim().toLowerCase() === "file") return;
-        if (!f || !f[0]) throw new InputError(`line ${i + 1}: expected file,category`, { file: source });
-        out.push(fileInput(base, f[0].trim(), f[1]?.trim() || undefined));
-      } else out.push(fileInput(base, line));
-    });
+    const text = readFileSync(source, "utf8");
+    if (kind === "index") {
+      for (const { line, fields: f } of indexRows(text, "file")) {
+        if (!f || !f[0]) throw new InputError(`line ${line}: expected file,category`, { file: source });
+        out.push(fileInput(base, f[0], f[1] || undefined));
+      }
+    } else {
+      for (const line of text.split(/\r?\n/)) {
+        const t = line.trim();
+        if (t && !t.startsWith("#")) out.push(fileInput(base, t));
+      }
+    }
   }
   out.sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
   return out;
