@@ -6,6 +6,9 @@
  * `<file>: <message>`.
  */
 
+/** Problems a caller may know how to fix, named in `OveraskError.code`. */
+export type ErrorCode = "labels-one-class" | "validation-labels-one-class" | "fold-parameters-differ" | "fold-same-baseline";
+
 /**
  * Base of every error overask raises about something outside it: an input, an output, a queue. It names
  * the file (or address) and, inside an archive, the entry, so the CLI prints one line for a person.
@@ -16,10 +19,16 @@ export class OveraskError extends Error {
   file?: string;
   /** The archive entry concerned (`split_a.apk`, `feature/manifest/AndroidManifest.xml`), when inside one. */
   entry?: string;
-  constructor(message: string, options?: { file?: string; entry?: string; cause?: unknown }) {
+  /**
+   * What kind of problem, for a caller that knows how to fix it: the CLI names its own options for a code
+   * (cli/hints.ts); the library's messages never name command-line options.
+   */
+  code?: ErrorCode;
+  constructor(message: string, options?: { file?: string; entry?: string; cause?: unknown; code?: ErrorCode }) {
     super(message, options?.cause === undefined ? undefined : { cause: options.cause });
     this.file = options?.file;
     if (options?.entry !== undefined) this.entry = options.entry;
+    if (options?.code !== undefined) this.code = options.code;
   }
   /** What is wrong, with the archive entry when there is one: `entry: message`. */
   detail(): string {

@@ -192,7 +192,7 @@ export async function learn(options: LearnOptions): Promise<LearnResult> {
   const positives = picked.filter((p) => p.record.label === 1).length;
   if (picked.length === 0) noModel = "no labeled rows: the baseline has frequencies only";
   else if (positives === 0 || positives === picked.length) {
-    throw new CorpusError(`the labeled rows are all ${positives ? "flagged" : "unflagged"}: no risk model can be learned; check --label-field and --positive`, { file: labelReport?.source ?? "the labeled corpus" });
+    throw new CorpusError(`the labeled rows are all ${positives ? "flagged" : "unflagged"}: no risk model can be learned`, { file: labelReport?.source ?? "the labeled corpus", code: "labels-one-class" });
   } else {
     const vocabulary = labelReport?.vocabulary ?? vocabularyOf(picked.map((p) => p.record));
     const hasCategories = picked.some((p) => p.record.category !== undefined);
@@ -213,7 +213,7 @@ export async function learn(options: LearnOptions): Promise<LearnResult> {
       const overlap = vocabulary.filter((p) => recorded.has(p)).length / vocabulary.length;
       if (overlap === 0) throw new CorpusError("records none of the labeled corpus's permissions: the model cannot be validated on it (are the permission columns named as the platform names them?)", { file: v.source.name });
       const pos = vrows.filter((r) => r.label === 1).length;
-      if (pos === 0 || pos === vrows.length) throw new CorpusError(`its labeled rows are all ${pos ? "flagged" : "unflagged"}: no ROC AUC can be computed; check --validate-label-field and --positive`, { file: v.source.name });
+      if (pos === 0 || pos === vrows.length) throw new CorpusError(`its labeled rows are all ${pos ? "flagged" : "unflagged"}: no ROC AUC can be computed`, { file: v.source.name, code: "validation-labels-one-class" });
       trained.validation.push(validateModel(trained, vrows, name, overlap));
     }
     model = {
@@ -231,7 +231,7 @@ export async function learn(options: LearnOptions): Promise<LearnResult> {
   if (model?.sample) notes.push(`the model was trained on a seeded stratified sample of ${model.sample.taken} of ${model.sample.of} labeled rows`);
   if (model && !model.training.converged) notes.push(`the model's fit did not fully converge (KKT residual ${model.training.kktResidual.toExponential(2)} after ${model.training.iterations} iterations)`);
   if (frequencyApps.seen > frequencyApps.items.length) notes.push(`atypicality percentiles come from a seeded sample of ${frequencyApps.items.length} of ${frequencyApps.seen} apps`);
-  for (const c of baseline.categorySummary()) if (c.pooled) notes.push(`category ${c.name} has ${c.apps} apps, below --min-support ${parameters.minSupport}: it uses the pooled baseline`);
+  for (const c of baseline.categorySummary()) if (c.pooled) notes.push(`category ${c.name} has ${c.apps} apps, below the minimum support of ${parameters.minSupport}: it uses the pooled baseline`);
 
   const file = newBaselineFile(
     {

@@ -1,4 +1,5 @@
 /** `overask check`: judging inputs, printing, and the exit code that gates a build. */
+import { describeForCli } from "./hints.js";
 import { UsageError } from "../errors.js";
 import { loadJudge } from "../ops/baseline.js";
 import { checkFiles, checkRecords } from "../ops/check.js";
@@ -55,7 +56,7 @@ export async function checkCommand(files: string[], o: CheckCliOptions, io: Io):
   }
   if (files.length === 0) throw new UsageError("give files to check, or --records CORPUS");
 
-  const outcome = checkFiles(judge, files, options, gates, (_file, e) => io.stderr.write(`overask: ${e.describe()}\n`));
+  const outcome = checkFiles(judge, files, options, gates, (_file, e) => io.stderr.write(`overask: ${describeForCli(e)}\n`));
   const info = { baseline: baselineName, caution: judge.file.caution, ...(options.policies ? { policies: options.policies } : {}) };
   if (o.format === "html") {
     const { checkToHtml } = await import("../report/html/check-report.js");

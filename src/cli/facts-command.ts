@@ -1,4 +1,5 @@
 /** `overask facts`. */
+import { describeForCli } from "./hints.js";
 import { facts } from "../ops/facts.js";
 import { factsToJson, factsToText } from "../report/facts.js";
 import { pickStyle } from "../report/style.js";
@@ -10,7 +11,7 @@ export function factsCommand(files: string[], o: { format: "text" | "json"; code
   const results = facts(files, {
     code: o.code !== false,
     onError: (_file, e) => {
-      io.stderr.write(`overask: ${e.describe()}\n`);
+      io.stderr.write(`overask: ${describeForCli(e)}\n`);
       if (debug && e.stack) io.stderr.write(`${e.stack}\n`);
       failed = true;
     },

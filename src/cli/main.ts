@@ -3,6 +3,7 @@
  * options.ts), calls an operation from src/ops, picks a formatter and sets the exit code. Command modules
  * load when their command runs, so that `--help` and `--version` start fast.
  */
+import { describeForCli } from "./hints.js";
 import { Command, CommanderError, Option } from "commander";
 import { OutputError, OveraskError, UsageError } from "../errors.js";
 import { TOOL_VERSION } from "../version.js";
@@ -213,7 +214,7 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
       return e.exitCode === 0 ? EXIT.OK : EXIT.USAGE;
     }
     if (e instanceof OveraskError) {
-      io.stderr.write(`overask: ${e.describe()}\n`);
+      io.stderr.write(`overask: ${describeForCli(e)}\n`);
       if (debug && e.stack) io.stderr.write(`${e.stack}\n`);
       // A queue that cannot be reached or used is an input the run could not read (exit-codes.ts).
       return e instanceof OutputError ? EXIT.OUTPUT : EXIT.INPUT;

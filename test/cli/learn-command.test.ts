@@ -78,16 +78,48 @@ describe("overask learn", () => {
 
 describe("overask fold", () => {
   it("adds up baselines and notes that models do not merge", async () => {
+    // Two halves of the demo corpus, one learned with its labels (a model), one without.
+    const lines = readFileSync(CORPUS, "utf8").trim().split("\n");
+    const halves = [lines.filter((_, i) => i % 2 === 0), lines.filter((_, i) => i % 2 === 1)].map((h, i) => {
+      const path = join(dir, `half${i}.jsonl`);
+      writeFileSync(path, `${h.join("\n")}\n`);
+      return path;
+    });
     const a = join(dir, "fa.json");
     const b = join(dir, "fb.json");
-    await cli(["learn", CORPUS, "--label-field", "flagged", "--positive", "yes", "-o", a]);
-    await cli(["learn", CORPUS, "--label-field", "none", "-o", b]);
+    await cli(["learn", halves[0], "--label-field", "flagged", "--positive", "yes", "-o", a]);
+    await cli(["learn", halves[1], "--label-field", "none", "-o", b]);
     const out = join(dir, "folded.json");
     const { code, stdout, stderr } = await cli(["fold", a, b, "-o", out]);
     expect(code).toBe(EXIT.OK);
-    expect(stdout).toMatch(/Folded 2 baselines into .*: 3000 apps in 5 categories/);
+    expect(stdout).toMatch(new RegExp(`Folded 2 baselines into .*: ${lines.length} apps in 5 categories`));
     expect(stderr).toMatch(/models do not merge/);
-    expect(JSON.parse(readFileSync(out, "utf8")).counts.pooled.apps).toBe(3000);
+    expect(JSON.parse(readFileSync(out, "utf8")).counts.pooled.apps).toBe(lines.length);
+  });
+
+  it("refuses the same baseline twice, which would count every app twice", async () => {
+    const a = join(dir, "same.json");
+    await cli(["learn", CORPUS, "--label-field", "none", "-o", a]);
+    const { code, stderr } = await cli(["fold", a, a, "-o", join(dir, "twice.json")]);
+    expect(code).toBe(EXIT.INPUT);
+    expect(stderr).toMatch(/holds the same counts as .*same\.json .*count every app twice; give each baseline once/);
+  });
+
+  it("matches categories without regard to case, and folds at the older era", async () => {
+    // The demo baseline (categories like TOOLS, era of its own corpus) and the bundled default (API 29).
+    const out = join(dir, "mixed.json");
+    const { code, stderr } = await cli(["fold", `${ROOT}baselines/harbourview-demo.json`, `${ROOT}baselines/default.json`, "-o", out]);
+    expect(code, stderr).toBe(EXIT.OK);
+    const folded = JSON.parse(readFileSync(out, "utf8"));
+    // The demo baseline spells Tools, the bundled one TOOLS (2,318 apps, the larger part): one category.
+    expect(Object.keys(folded.counts.categories).sort()).toEqual(["COMMUNICATION", "EDUCATION", "SOCIAL", "TOOLS", "Weather"]);
+    expect(folded.provenance.notes.join(" ")).toMatch(/categories TOOLS, Tools folded as one, TOOLS/);
+    // Eras: the demo's API 33, the bundled API 29 (their files' `era`): the folded one speaks for API 29.
+    expect(folded.era.api).toBe(29);
+    // So a well-behaved modern app (fixtures/apk/snapshare.apk) gets no warning against it.
+    const r = await cli(["check", "-b", out, "-c", "tools", "--fail-on", "warning", "-f", "json", `${ROOT}fixtures/apk/snapshare.apk`]);
+    expect(JSON.parse(r.stdout).results[0].findings.filter((f: { level: string }) => f.level !== "note")).toEqual([]);
+    expect(r.code).toBe(EXIT.OK);
   });
 
   it("refuses a file that is not a baseline", async () => {
