@@ -7,6 +7,7 @@ import { describeForCli } from "./hints.js";
 import { Command, CommanderError, Option } from "commander";
 import { OutputError, OveraskError, UsageError } from "../errors.js";
 import { TOOL_VERSION } from "../version.js";
+import { kindsInWords } from "../extract/kinds.js";
 import { EXIT, exitCodesHelp } from "./exit-codes.js";
 import { processIo, type Io } from "./io.js";
 import { anInteger, closedUnit, collect, collectLevels, collectPairs, nonNegative, openUnit, shardParser, wholeNumber } from "./options.js";
@@ -31,7 +32,7 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
   program
     .command("facts")
     .description("read APKs, app bundles or manifests and print what they declare")
-    .argument("<file...>", "APKs, app bundles (.aab), multi-APK archives, binary, protobuf or plain AndroidManifest.xml files")
+    .argument("<file...>", `apps or manifests: ${kindsInWords()}`)
     .addOption(new Option("-f, --format <format>", "output format").choices(["text", "json"]).default("text"))
     .option("--no-code", "skip reading the app's dex code for code evidence")
     .action(async (files: string[], opts: { format: "text" | "json"; code: boolean }) => {

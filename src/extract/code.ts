@@ -20,10 +20,6 @@ export interface DexInput {
 /** Dex entries of an APK (`classes.dex`, `classes2.dex` …) or of an app bundle module (`base/dex/classes.dex`). */
 export const DEX_ENTRY = /^(?:[^/]+\/dex\/)?classes\d*\.dex$/;
 
-/** Entries the code reader opens: dex files, and nested APKs of a multi-APK archive. */
-export function wantedCodeEntry(name: string): boolean {
-  return DEX_ENTRY.test(name) || NESTED_APK.test(name);
-}
 
 /** Reads every dex of the archive; entries are taken in their natural order (classes, classes2 … classes10). */
 export function readDexEntries(archive: ArchiveReader, prefix = ""): DexInput[] {

@@ -7,10 +7,9 @@
 import { InputError, LimitError, withFile } from "../errors.js";
 import { LIMITS } from "../limits.js";
 import { decodeBinaryXml } from "./binary/binary-xml.js";
-import { readDexEntries, wantedCodeEntry, type DexInput } from "./code.js";
-import { fromApk, MANIFEST_ENTRY, PROTO_RESOURCE_TABLE_ENTRY, RESOURCE_TABLE_ENTRY, type ReadOptions } from "./containers/apk.js";
-import { BUNDLE_MANIFEST, BUNDLE_RESOURCE_TABLE, fromBundle, isBundle } from "./containers/bundle.js";
-import { fromMultiApk, isMultiApk, NESTED_APK } from "./containers/multi-apk.js";
+import { readDexEntries, type DexInput } from "./code.js";
+import { MANIFEST_ENTRY, type ReadOptions } from "./containers/apk.js";
+import { containerOf, wantedCodeEntry, wantedManifestEntry as wantedEntry } from "./kinds.js";
 import { openArchive, openArchiveBytes, type ArchiveReader, type RandomAccessSource } from "./containers/zip.js";
 import { DETECT_BYTES, detectKind, type DetectedKind } from "./detect.js";
 import { buildManifest } from "./manifest/build.js";
@@ -19,11 +18,6 @@ import { parsePlainXml } from "./plain-xml.js";
 import { decodeProtoXml } from "./proto/proto-xml.js";
 
 export type { ReadOptions } from "./containers/apk.js";
-
-/** The only entries a manifest reader needs; an APK's thousands of others are never parsed. */
-function wantedEntry(name: string): boolean {
-  return name === MANIFEST_ENTRY || name === RESOURCE_TABLE_ENTRY || name === PROTO_RESOURCE_TABLE_ENTRY || name === BUNDLE_RESOURCE_TABLE || BUNDLE_MANIFEST.test(name) || NESTED_APK.test(name);
-}
 
 /** Reads a manifest from bytes in memory. `label` names the input in errors. */
 export function readManifestBytes(bytes: Uint8Array, label = "<input>", options: ReadOptions = {}): Manifest {
@@ -127,8 +121,7 @@ function fromArchive(archive: ArchiveReader, options: ReadOptions): Manifest {
 /** The dispatch of fromArchive, leaving the archive open. */
 function fromArchiveOpen(archive: ArchiveReader, options: ReadOptions): Manifest {
   const entries = archive.entries();
-  if (entries.some((e) => e.name === MANIFEST_ENTRY)) return fromApk(archive, options);
-  if (isBundle(entries)) return fromBundle(archive, entries);
-  if (isMultiApk(entries)) return fromMultiApk(archive, entries);
-  throw new InputError(`no ${MANIFEST_ENTRY} in archive (is this an APK?)`);
+  const container = containerOf(entries);
+  if (!container) throw new InputError(`no ${MANIFEST_ENTRY} in archive (is this an APK?)`);
+  return container.read(archive, entries, options);
 }

@@ -7,6 +7,7 @@ import { BLIND_SPOTS, codeStatusText, evidenceLabel, type CodeEvidence, type Evi
 import { TOOL_VERSION } from "../version.js";
 import { PLAIN, fit, wrap, type Style } from "./style.js";
 import { PLATFORM_PREFIX, short } from "./format.js";
+import { KIND_INFO } from "../extract/kinds.js";
 
 export interface FactsResult {
   file: string;
@@ -33,15 +34,7 @@ export function factsToText(results: FactsResult[], style: Style = PLAIN): strin
 }
 
 function inputText(m: Manifest): string {
-  const kind = {
-    apk: "APK",
-    "proto-apk": "proto-format APK",
-    "app-bundle": "app bundle",
-    "multi-apk": "multi-APK archive",
-    "binary-xml": "binary manifest",
-    "proto-xml": "protobuf manifest",
-    "plain-xml": "source manifest",
-  }[m.input.kind];
+  const kind = KIND_INFO[m.input.kind].name;
   const enc = { "binary-utf8": "UTF-8 strings", "binary-utf16": "UTF-16 strings", protobuf: "protobuf XML", text: "text" }[m.input.encoding];
   return m.input.kind === "plain-xml" ? kind : `${kind}, ${enc}`;
 }

@@ -1,4 +1,5 @@
 /** Opening a corpus in any of its formats behind one interface. */
+import { namedLikeInput } from "../../extract/kinds.js";
 import { Ledger } from "./common.js";
 import { readFileIndex } from "./files.js";
 import { readJsonl } from "./jsonl.js";
@@ -13,13 +14,15 @@ export interface Corpus {
 
 /**
  * Tells a corpus format from its first text: JSONL when the first non-blank character is `{`; an index
- * CSV when the first row starts with `file,` or names an .apk/.xml; a wide CSV otherwise.
+ * CSV when the first row starts with `file,` or its first field is named like an app or manifest
+ * (extract/kinds.ts); a wide CSV otherwise.
  */
 export function detectCorpusFormat(head: string): CorpusFormat {
   const text = head.replace(/^\uFEFF/, "").trimStart();
   if (text.startsWith("{")) return "jsonl";
   const first = text.split(/\r?\n/)[0].toLowerCase();
-  if (first.startsWith("file,") || /^[^,]+\.(apk|xml)\s*,/.test(first)) return "files";
+  const field = /^([^,]+?)\s*,/.exec(first)?.[1];
+  if (first.startsWith("file,") || (field !== undefined && namedLikeInput(field))) return "files";
   return "wide-csv";
 }
 

@@ -14,7 +14,7 @@ import { entryProvenance, readOptionalTable, type ArchiveEntryInfo, type Archive
 export const BUNDLE_MANIFEST = /^([^/]+)\/manifest\/AndroidManifest\.xml$/;
 export const BUNDLE_RESOURCE_TABLE = "base/resources.pb";
 
-export function isBundle(entries: ArchiveEntryInfo[]): boolean {
+export function isBundle(entries: readonly ArchiveEntryInfo[]): boolean {
   return entries.some((e) => BUNDLE_MANIFEST.test(e.name));
 }
 

@@ -11,7 +11,7 @@ import { entryProvenance, openArchiveBytes, type ArchiveEntryInfo, type ArchiveR
 /** APKs at the top of a multi-APK archive (base and splits). */
 export const NESTED_APK = /^[^/]+\.apk$/;
 
-export function isMultiApk(entries: ArchiveEntryInfo[]): boolean {
+export function isMultiApk(entries: readonly ArchiveEntryInfo[]): boolean {
   return entries.some((e) => NESTED_APK.test(e.name));
 }
 

@@ -9,6 +9,7 @@ import { indexRows } from "../../util/csv.js";
 import { InputError, UsageError } from "../../errors.js";
 import { decodeBinaryXml } from "../../extract/binary/binary-xml.js";
 import { DETECT_BYTES, detectKind } from "../../extract/detect.js";
+import { namedLikeInput, namedLikeManifest } from "../../extract/kinds.js";
 import { fnv1a32 } from "../../util/hash.js";
 import type { SweepInput } from "./rows.js";
 
@@ -69,7 +70,7 @@ function walk(root: string, dir: string, out: SweepInput[], report: WalkReport):
       // A folder holds other things too (notes, images). Files named like apps are taken as they are
       // (reading tells what they really are, and reports them if they are not); others only when their
       // first bytes look like an app or a manifest.
-      if (!/\.(apk|aab|apks|xml)$/i.test(entry.name)) {
+      if (!namedLikeInput(entry.name)) {
         let kind;
         try {
           kind = detectKind(head(path));
@@ -77,7 +78,7 @@ function walk(root: string, dir: string, out: SweepInput[], report: WalkReport):
           kind = "unknown";
         }
         if (kind === "unknown") continue;
-      } else if (/\.xml$/i.test(entry.name) && plainlyNotManifest(path)) {
+      } else if (namedLikeManifest(entry.name) && plainlyNotManifest(path)) {
         report.notManifests++;
         continue;
       }
