@@ -56,6 +56,14 @@ describe("layers", () => {
     expect(upward).toEqual([]);
   });
 
+  it("leave the console, standard streams and the environment to ops/ and cli/", () => {
+    // A library layer never writes to the terminal or reads settings from the environment behind its
+    // caller's back (a statistics step once printed a trace when an undocumented variable was set).
+    const io = /\b(console\.\w+|process\.(stderr|stdout|stdin|env|exit))\b/;
+    const offenders = modules.filter((m) => layerOf(m) < 6 && io.test(readFileSync(join(SRC, m), "utf8").replace(/\/\*[\s\S]*?\*\/|\/\/[^\n]*/g, "")));
+    expect(offenders).toEqual([]);
+  });
+
   it("leave the file system, child processes and threads to ops/ and cli/", () => {
     const io = /^node:(fs|fs\/promises|child_process|worker_threads|readline|net)$/;
     const offenders = modules.filter((m) => layerOf(m) < 6 && importsOf(m).some((s) => io.test(s)));

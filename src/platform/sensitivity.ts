@@ -25,12 +25,6 @@ export function sensitivityOf(permission: string): Sensitivity | undefined {
   return table.get(permission);
 }
 
-/** Every row of the sensitivity table. */
-export function sensitivityTable(): ReadonlyMap<string, Sensitivity> {
-  sensitivityOf("");
-  return table!;
-}
-
 /** Sensitive: marked so in the sensitivity table (dangerous, app-op and restricted permissions, less the harmless ones). */
 export function isSensitive(permission: string): boolean {
   return sensitivityOf(permission)?.sensitive ?? false;

@@ -13,7 +13,7 @@ const plainStyle: Style = { bold: (s) => s, dim: (s) => s, warn: (s) => s, alert
 const sgr = (code: string) => (s: string) => `\u001b[${code}m${s}\u001b[0m`;
 const colourStyle: Style = { bold: sgr("1"), dim: sgr("2"), warn: sgr("33"), alert: sgr("31") };
 
-export function pickStyle(stream: { isTTY?: boolean }, env: NodeJS.ProcessEnv = process.env): Style {
+export function pickStyle(stream: { isTTY?: boolean }, env: Readonly<Record<string, string | undefined>>): Style {
   const noColor = env.NO_COLOR !== undefined && env.NO_COLOR !== "";
   return stream.isTTY && !noColor ? colourStyle : plainStyle;
 }
