@@ -109,6 +109,12 @@ for f in "$APK"/*.apk; do
   aapt dump badging "$f" > "$DUMPS/$v.badging.txt" 2>/dev/null || true
   unzip -v "$f" > "$DUMPS/$v.entries.txt"
 done
+# The multidex torch rewritten as a zip64 archive by Info-ZIP's zip (-fz: zip64 end records and extra
+# fields); Debian's aapt refuses zip64, so it lives apart from fixtures/apk and its dumps.
+rm -rf "$WORK/z64" && mkdir -p "$WORK/z64" && unzip -q "$APK/beamtorch-code.apk" -d "$WORK/z64/src"
+(cd "$WORK/z64/src" && zip -q -X -fz -r ../out.apk .)
+cp "$WORK/z64/out.apk" fixtures/zip64/beamtorch-code-zip64.apk
+
 # A res/xml file compiled with a UTF-8 string pool, as the toolchain writes those.
 aapt dump xmltree "$APK/tidewatch.apk" res/xml/network_security_config.xml > "$DUMPS/tidewatch.network_security_config.xmltree.txt"
 

@@ -1,7 +1,7 @@
 #!/usr/bin/env node
 // Bundles the CLI with esbuild into dist/bundle/: one entry plus chunks that load per command, so that
 // `overask check` starts without loading the learning code, and without resolving dozens of modules.
-// xml2js, cli-progress, protobufjs and adm-zip stay outside the bundle: they are loaded only when needed
+// xml2js, cli-progress and protobufjs stay outside the bundle: they are loaded only when needed
 // (createRequire); bullmq and ioredis load with the queue commands only.
 import { rmSync } from "node:fs";
 import { build } from "esbuild";
@@ -32,7 +32,7 @@ await build({
   format: "esm",
   platform: "node",
   target: "node20",
-  external: ["xml2js", "cli-progress", "bullmq", "ioredis", "protobufjs", "adm-zip"],
+  external: ["xml2js", "cli-progress", "bullmq", "ioredis", "protobufjs"],
   banner: { js: 'import { createRequire as __overaskRequire } from "node:module"; const require = __overaskRequire(import.meta.url);' },
   logLevel: "warning",
   legalComments: "linked",

@@ -12,11 +12,6 @@ export const LIMITS = {
   MAX_RESOURCE_TABLE_BYTES: 128 * 1024 * 1024,
   /** Largest APK inside a multi-APK archive that we read into memory. */
   MAX_NESTED_APK_BYTES: 512 * 1024 * 1024,
-  /**
-   * Largest zip64 archive we read: zip64 directories are handed to adm-zip whole, so unlike other
-   * archives these are read into memory in full. APKs are almost never zip64.
-   */
-  MAX_ZIP64_ARCHIVE_BYTES: 1024 * 1024 * 1024,
   /** Largest compression ratio an archive entry may claim or show (inflated / compressed). */
   MAX_COMPRESSION_RATIO: 1000,
   /** Most entries we accept in an archive's central directory. */

@@ -7,15 +7,13 @@
  * end-of-central-directory record and the central directory, parses the records itself, and reads an
  * entry's local header and data from the file when asked. Time and memory follow what is read, not the
  * file size. A caller that needs only some entries names them (`only`), and the one pass over the
- * directory keeps just those records. (adm-zip, which built a header object per record at tens of
- * microseconds each, now reads only zip64 archives, which APKs rarely are.)
+ * directory keeps just those records. Zip64 archives (APPNOTE 4.3.14–4.3.15, 4.5.3: sizes and offsets
+ * past 4 GiB or 65,535 entries) are read the same way, through the zip64 end record and extra fields.
  *
- * Inflation is ours, not adm-zip's: it would inflate a zip bomb in full, so every entry is checked
- * against its declared size and a named limit first, and inflated with a hard output cap.
+ * Inflation is ours: every entry is checked against its declared size and a named limit first, and
+ * inflated with a hard output cap, so a zip bomb stops at the cap.
  */
 import { crc32, inflateRawSync } from "node:zlib";
-import { createRequire } from "node:module";
-import type AdmZipNs from "adm-zip";
 import { ArchiveError, InputError, LimitError } from "../../errors.js";
 import { LIMITS, type LimitName } from "../../limits.js";
 
@@ -113,7 +111,7 @@ type EntryFilter = readonly string[] | ((name: string) => boolean);
 
 export function openArchiveBytes(bytes: Uint8Array, only?: EntryFilter): ArchiveReader {
   const buf = Buffer.isBuffer(bytes) ? bytes : Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-  return openSource(bufferSource(buf), only, buf);
+  return openSource(bufferSource(buf), only);
 }
 
 /**
@@ -131,30 +129,30 @@ export function openArchive(source: RandomAccessSource, only?: EntryFilter): Arc
     } finally {
       src.close();
     }
-    return openSource(bufferSource(buf), only, buf);
+    return openSource(bufferSource(buf), only);
   }
   return openSource(src, only);
 }
 
-function openSource(src: Source, only: EntryFilter | undefined, whole?: Buffer): ArchiveReader {
+function openSource(src: Source, only: EntryFilter | undefined): ArchiveReader {
   try {
     const size = src.size;
     const tailStart = Math.max(0, size - EOCD_SEARCH);
     const tail = src.slice(tailStart, size - tailStart);
     const eocd = findEocd(tail);
     if (eocd < 0) throw new ArchiveError("no end of central directory record (not a zip archive, or truncated)");
-    const cdSize = tail.readUInt32LE(eocd + 12); // EOCD: size of the central directory
-    const cdOffset = tail.readUInt32LE(eocd + 16); // EOCD: offset of start of central directory
-    if (cdOffset === 0xffffffff || cdSize === 0xffffffff) {
-      // Zip64: rare for APKs; adm-zip finds its way through the whole file, which is therefore read
-      // whole — but only up to a named cap, never a file of any size.
-      if (!whole && size > LIMITS.MAX_ZIP64_ARCHIVE_BYTES) throw new LimitError("MAX_ZIP64_ARCHIVE_BYTES", size, LIMITS.MAX_ZIP64_ARCHIVE_BYTES, "zip64 archive has a size in bytes of");
-      const buf = whole ?? src.slice(0, size);
-      src.close();
-      return new AdmArchive(buf, () => {});
+    let cdSize = tail.readUInt32LE(eocd + 12); // EOCD: size of the central directory
+    let cdOffset = tail.readUInt32LE(eocd + 16); // EOCD: offset of start of central directory
+    let dirEnd = tailStart + eocd; // where the directory must end: the (zip64) end record
+    if (cdOffset === 0xffffffff || cdSize === 0xffffffff || tail.readUInt16LE(eocd + 10) === 0xffff) {
+      // Zip64 (APPNOTE 4.3.14, 4.3.15): the real values are in the zip64 end of central directory record,
+      // found through its locator, the 20 bytes just before the end record.
+      const z = zip64End(src, tailStart + eocd);
+      cdSize = z.cdSize;
+      cdOffset = z.cdOffset;
+      dirEnd = z.at;
     }
-    const eocdAt = tailStart + eocd;
-    if (cdOffset + cdSize > eocdAt) throw new ArchiveError(`central directory (${cdSize} bytes at ${cdOffset}) overlaps its end record at ${eocdAt}`);
+    if (cdOffset + cdSize > dirEnd) throw new ArchiveError(`central directory (${cdSize} bytes at ${cdOffset}) overlaps its end record at ${dirEnd}`);
     // The record count is checked on the raw directory as it is parsed.
     const names = only === undefined || typeof only === "function" ? undefined : new Set(only);
     const keep = only === undefined ? () => true : typeof only === "function" ? only : (n: string) => names!.has(n);
@@ -164,6 +162,30 @@ function openSource(src: Source, only: EntryFilter | undefined, whole?: Buffer):
     try { src.close(); } catch { /* already closed */ }
     throw e;
   }
+}
+
+const ZIP64_LOCATOR_SIGNATURE = 0x07064b50;
+const ZIP64_LOCATOR_SIZE = 20;
+const ZIP64_END_SIGNATURE = 0x06064b50;
+const ZIP64_END_SIZE = 56;
+
+/** The zip64 end of central directory record, through its locator just before the end record at `eocdAt`. */
+function zip64End(src: Source, eocdAt: number): { cdSize: number; cdOffset: number; at: number } {
+  const locAt = eocdAt - ZIP64_LOCATOR_SIZE;
+  if (locAt < 0) throw new ArchiveError("the end record marks a zip64 archive, but there is no room for its zip64 locator");
+  const loc = src.slice(locAt, ZIP64_LOCATOR_SIZE);
+  if (loc.readUInt32LE(0) !== ZIP64_LOCATOR_SIGNATURE) throw new ArchiveError(`the end record marks a zip64 archive, but no zip64 locator precedes it (at ${locAt})`);
+  // Locator: disk with the zip64 end record (u32 at 4), its offset (u64 at 8), total disks (u32 at 16).
+  const at = Number(loc.readBigUInt64LE(8));
+  if (loc.readUInt32LE(16) > 1) throw new ArchiveError(`archive spans ${loc.readUInt32LE(16)} disks; Android reads single-file archives only`);
+  if (at + ZIP64_END_SIZE > locAt) throw new ArchiveError(`zip64 end record offset ${at} is past its locator at ${locAt}`);
+  const rec = src.slice(at, ZIP64_END_SIZE);
+  if (rec.readUInt32LE(0) !== ZIP64_END_SIGNATURE) throw new ArchiveError(`no zip64 end of central directory record at offset ${at}`);
+  // Zip64 end record: size of the central directory (u64 at 40), its offset (u64 at 48).
+  const cdSize = rec.readBigUInt64LE(40);
+  const cdOffset = rec.readBigUInt64LE(48);
+  if (cdSize > BigInt(at) || cdOffset > BigInt(at)) throw new ArchiveError(`zip64 central directory (${cdSize} bytes at ${cdOffset}) lies past its end record at ${at}`);
+  return { cdSize: Number(cdSize), cdOffset: Number(cdOffset), at };
 }
 
 const CENTRAL_SIGNATURE = 0x02014b50;
@@ -301,12 +323,7 @@ function readEntry(i: ArchiveEntryInfo, limit: LimitName, notes: string[], compr
     throw new LimitError("MAX_COMPRESSION_RATIO", Math.round(i.size / i.compressedSize), LIMITS.MAX_COMPRESSION_RATIO, `${name} declares a compression ratio of`);
   }
   if (flags & 0x1) notes.push(`${name} is marked encrypted in the archive but is read as plain, as Android reads it`);
-  let compressed: Buffer;
-  try {
-    compressed = compressedOf(i);
-  } catch (err) {
-    throw admError(err, name);
-  }
+  const compressed = compressedOf(i);
   let data: Buffer;
   if (i.method === "stored") data = compressed;
   else if (i.method === "deflated") {
@@ -326,47 +343,6 @@ function readEntry(i: ArchiveEntryInfo, limit: LimitName, notes: string[], compr
   return new Uint8Array(data.buffer, data.byteOffset, data.byteLength);
 }
 
-type AdmEntry = ReturnType<AdmZipNs["getEntries"]>[number];
-
-class AdmArchive implements ArchiveReader {
-  readonly notes: string[] = [];
-  private readonly zip: AdmZipNs;
-  private readonly list: AdmEntry[];
-
-  constructor(
-    buf: Buffer,
-    private readonly onClose: () => void,
-  ) {
-    try {
-      // Loaded for zip64 archives only (createRequire: a command that never meets one never loads it).
-      const AdmZip = createRequire(import.meta.url)("adm-zip") as typeof AdmZipNs;
-      this.zip = new AdmZip(buf, { readEntries: true } as never);
-      this.list = this.zip.getEntries();
-    } catch (e) {
-      onClose();
-      throw admError(e);
-    }
-    if (this.list.length > LIMITS.MAX_ARCHIVE_ENTRIES) {
-      onClose();
-      throw new LimitError("MAX_ARCHIVE_ENTRIES", this.list.length, LIMITS.MAX_ARCHIVE_ENTRIES, "archive has an entry count of");
-    }
-  }
-
-  entries(): ArchiveEntryInfo[] {
-    return this.list.map(info);
-  }
-
-  read(name: string, limit: LimitName): Uint8Array {
-    const e = this.list.find((x) => x.entryName === name);
-    if (!e) throw new ArchiveError(`no ${name} in archive`);
-    return readEntry(info(e), limit, this.notes, () => e.getCompressedData(), e.header.flags);
-  }
-
-  close(): void {
-    this.onClose();
-  }
-}
-
 /** Reads an entry's compressed bytes: local header (30 bytes, then name and extra), then data. */
 function readLocalEntry(src: Source, at: number, i: ArchiveEntryInfo, name: string, notes: string[]): Buffer {
   if (at + LOCAL_HEADER_SIZE > src.size) throw new ArchiveError(`${name}: local header offset ${at} is past the end of the file`);
@@ -378,24 +354,6 @@ function readLocalEntry(src: Source, at: number, i: ArchiveEntryInfo, name: stri
   const dataAt = at + LOCAL_HEADER_SIZE + local.readUInt16LE(26) + local.readUInt16LE(28); // name and extra lengths
   if (dataAt + i.compressedSize > src.size) throw new ArchiveError(`${name}: ${i.compressedSize} bytes of data at ${dataAt} run past the end of the file`);
   return src.slice(dataAt, i.compressedSize);
-}
-
-function info(e: AdmEntry): ArchiveEntryInfo {
-  const h = e.header;
-  const method = h.method === 0 ? "stored" : h.method === 8 ? "deflated" : (`method-${h.method}` as const);
-  return { name: e.entryName, method, compressedSize: h.compressedSize, size: h.size, crc: h.crc >>> 0 };
-}
-
-/** Turns adm-zip's plain Errors into one-line ArchiveErrors. */
-function admError(e: unknown, entry?: string): Error {
-  if (e instanceof ArchiveError) return e;
-  const msg = e instanceof Error ? e.message : String(e);
-  const what = /END header/i.test(msg)
-    ? "no end of central directory record (not a zip archive, or truncated)"
-    : /Duplicate entry name/i.test(msg)
-      ? `archive declares the same entry twice (${msg.replace(/^.*Duplicate entry name\s*/i, "")}); refusing an ambiguous archive`
-      : `damaged archive (${msg})`;
-  return new ArchiveError(entry ? `${entry}: ${what}` : what, { cause: e });
 }
 
 /**

@@ -1,4 +1,5 @@
-import { mkdtempSync, writeFileSync } from "node:fs";
+import { execFileSync } from "node:child_process";
+import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { randomBytes } from "node:crypto";
@@ -11,7 +12,16 @@ import { readManifestBytes } from "../../../src/extract/index.js";
 import { readManifestFile } from "../../../src/ops/read-manifest.js";
 import { LIMITS } from "../../../src/limits.js";
 import { tinyManifest } from "../../helpers/axml.js";
-import { APK_DIR } from "../../helpers/paths.js";
+import { APK_DIR, FIXTURES } from "../../helpers/paths.js";
+
+const hasZip = (() => {
+  try {
+    execFileSync("zip", ["-v"], { stdio: "ignore" });
+    return true;
+  } catch {
+    return false;
+  }
+})();
 
 const dir = mkdtempSync(join(tmpdir(), "overask-archive-"));
 
@@ -82,6 +92,58 @@ describe("archives", () => {
     expect(Buffer.from(sparse.read("AndroidManifest.xml", "MAX_MANIFEST_BYTES"))).toEqual(Buffer.from(whole.read("AndroidManifest.xml", "MAX_MANIFEST_BYTES")));
     sparse.close();
     expect(readManifestFile(path).usesPermissions[0].name).toBe("android.permission.CAMERA");
+  });
+
+  describe("zip64", () => {
+    // fixtures/zip64/beamtorch-code-zip64.apk: fixtures/apk/beamtorch-code.apk rewritten by Info-ZIP's
+    // `zip -fz` (scripts/build-fixtures.sh): a zip64 end record and locator, central directory fields of
+    // 0xffffffff with their zip64 extra fields (APPNOTE 4.3.14–4.3.15, 4.5.3).
+    const plain = readFileSync(`${APK_DIR}beamtorch-code.apk`);
+    const z64 = readFileSync(`${FIXTURES}zip64/beamtorch-code-zip64.apk`);
+
+    it("is what the fixture really is: zip64 end records, and a directory offset of 0xffffffff", () => {
+      expect(z64.indexOf(Buffer.from([0x50, 0x4b, 6, 6]))).toBeGreaterThan(0);
+      expect(z64.indexOf(Buffer.from([0x50, 0x4b, 6, 7]))).toBeGreaterThan(0);
+      const eocd = z64.lastIndexOf(Buffer.from([0x50, 0x4b, 5, 6]));
+      expect(z64.readUInt32LE(eocd + 16)).toBe(0xffffffff);
+    });
+
+    it("reads to the same manifest and dex as the plain archive, by our own parser", () => {
+      const a = openArchiveBytes(plain);
+      const b = openArchiveBytes(z64);
+      const names = (r: typeof a) => r.entries().map((e) => e.name).sort();
+      expect(names(b)).toEqual(names(a));
+      for (const n of ["AndroidManifest.xml", "classes.dex", "classes2.dex"]) expect(Buffer.from(b.read(n, "MAX_DEX_BYTES")).equals(Buffer.from(a.read(n, "MAX_DEX_BYTES"))), n).toBe(true);
+      // zip re-deflated the entries, so only the manifest entry's compressed size may differ.
+      const model = (bytes: Buffer) => {
+        const m = readManifestBytes(bytes);
+        return { ...m, input: { ...m.input, entry: { ...m.input.entry, compressedSize: 0 } } };
+      };
+      expect(model(z64)).toEqual(model(plain));
+    });
+
+    it("reads a large zip64 archive from disk by its directory alone", () => {
+      if (!hasZip) return void console.log("skipped: Debian's zip is not installed (apt-get install zip)");
+      const work = mkdtempSync(join(tmpdir(), "overask-z64-"));
+      writeFileSync(join(work, "AndroidManifest.xml"), tinyManifest("android.permission.CAMERA"));
+      writeFileSync(join(work, "blob.bin"), randomBytes(3 * 1024 * 1024));
+      execFileSync("zip", ["-q", "-fz", "-0", "big.apk", "AndroidManifest.xml", "blob.bin"], { cwd: work });
+      expect(readManifestFile(join(work, "big.apk")).usesPermissions[0].name).toBe("android.permission.CAMERA");
+    });
+
+    it("refuses a zip64 end record that is missing or lies", () => {
+      const eocd = z64.lastIndexOf(Buffer.from([0x50, 0x4b, 5, 6]));
+      const noLocator = Buffer.from(z64);
+      noLocator.writeUInt32LE(0, eocd - 20);
+      expect(() => openArchiveBytes(noLocator)).toThrow(/no zip64 locator precedes it/);
+      const farRecord = Buffer.from(z64);
+      farRecord.writeBigUInt64LE(BigInt(z64.length), eocd - 20 + 8);
+      expect(() => openArchiveBytes(farRecord)).toThrow(/zip64 end record offset .* is past its locator/);
+      const at = z64.indexOf(Buffer.from([0x50, 0x4b, 6, 6]));
+      const farDirectory = Buffer.from(z64);
+      farDirectory.writeBigUInt64LE(2n ** 40n, at + 48);
+      expect(() => openArchiveBytes(farDirectory)).toThrow(ArchiveError);
+    });
   });
 
   it("names the file in every error, without a stack", () => {
