@@ -14,10 +14,24 @@ import { anInteger, closedUnit, collect, collectLevels, collectPairs, nonNegativ
 
 export type { Io } from "./io.js";
 
+/** What a command's action does with its exit code. */
+type SetExit = (code: number) => void;
+
 /** Runs the CLI with `argv` (without the node and script entries) and returns the exit code. */
 export async function run(argv: string[], io: Io = processIo): Promise<number> {
   let exitCode: number = EXIT.OK;
   const debug = argv.includes("--debug");
+  const program = buildProgram(io, debug, (code) => (exitCode = code));
+  try {
+    await program.parseAsync(argv, { from: "user" });
+  } catch (e) {
+    return exitCodeOf(e, io, debug);
+  }
+  return exitCode;
+}
+
+/** The program: every command with its options. */
+function buildProgram(io: Io, debug: boolean, setExit: SetExit): Command {
   const program = new Command()
     .name("overask")
     .description("Read Android manifests and weigh the permissions they request against apps of the same category.")
@@ -28,18 +42,57 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
     .configureOutput({ writeOut: (s) => io.stdout.write(s), writeErr: (s) => io.stderr.write(s), outputError: (s, write) => write(`overask: ${s.replace(/^error: /, "")}`) })
     .addHelpText("after", exitCodesHelp())
     .exitOverride();
+  addFacts(program, io, debug, setExit);
+  addLearn(program, io, setExit);
+  addCheck(program, io, setExit);
+  addSweep(program, io, setExit);
+  addWork(program, io, setExit);
+  addTrim(program, io, setExit);
+  addDelta(program, io, setExit);
+  addBaseline(program, io, setExit);
+  addRules(program, io, setExit);
+  addFold(program, io, setExit);
+  return program;
+}
 
+/**
+ * The options every judging command shares (check, sweep, trim, delta): which category, which baseline,
+ * which checks at which level, the prevalence, policies, and whether to read the code.
+ */
+function withJudgingOptions(cmd: Command, category = "category to judge against (otherwise --categories, then android:appCategory, then all categories pooled)"): Command {
+  return cmd
+    .option("-c, --category <name>", category)
+    .option("--categories <file>", "CSV mapping package names to categories (package,category)")
+    .option("-b, --baseline <file>", "baseline file (default: the bundled baselines/default.json)")
+    .option("--level <check=level>", "override a check's level: error, warning, note or off (repeatable)", collectLevels)
+    .option("--prevalence <share>", "share of flagged apps in your population: shift the risk to it from the training base rate", openUnit)
+    .option("--policy <file>", "evaluate this policy's rules too (repeatable; see overask rules)", collect)
+    .option("--no-code", "skip reading the app's dex code for code evidence (APKs and bundles)");
+}
+
+/** The gates of check and sweep. */
+function withGates(cmd: Command, what: string): Command {
+  return cmd
+    .addOption(new Option("--fail-on <level>", `exit 1 when ${what} a finding at or above this level`).choices(["error", "warning", "note"]))
+    .option("--max-risk <p>", "exit 1 when an app's risk is above this probability", closedUnit);
+}
+
+const formatOption = (formats: string[]) => new Option("-f, --format <format>", "output format").choices(formats).default(formats[0]);
+
+function addFacts(program: Command, io: Io, debug: boolean, setExit: SetExit): void {
   program
     .command("facts")
     .description("read APKs, app bundles or manifests and print what they declare")
     .argument("<file...>", `apps or manifests: ${kindsInWords()}`)
-    .addOption(new Option("-f, --format <format>", "output format").choices(["text", "json"]).default("text"))
+    .addOption(formatOption(["text", "json"]))
     .option("--no-code", "skip reading the app's dex code for code evidence")
     .action(async (files: string[], opts: { format: "text" | "json"; code: boolean }) => {
       const { factsCommand } = await import("./facts-command.js");
-      exitCode = factsCommand(files, opts, io, debug);
+      setExit(factsCommand(files, opts, io, debug));
     });
+}
 
+function addLearn(program: Command, io: Io, setExit: SetExit): void {
   program
     .command("learn")
     .description("learn category baselines (and a risk model, from labeled apps) from corpora")
@@ -78,26 +131,15 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
     .option("--rejects <file>", "write every rejected row (file, line, reason) to this file")
     .action(async (corpora: string[], o: import("./learn-command.js").LearnCliOptions) => {
       const { learnCommand } = await import("./learn-command.js");
-      exitCode = await learnCommand(corpora, o, io);
+      setExit(await learnCommand(corpora, o, io));
     });
+}
 
-  /** The options every judging command shares: which category, which baseline, which format. */
-  const judging = (cmd: Command, formats: string[]) =>
-    cmd
-      .option("-c, --category <name>", "category to judge against (otherwise --categories, then android:appCategory, then all categories pooled)")
-      .option("--categories <file>", "CSV mapping package names to categories (package,category)")
-      .option("-b, --baseline <file>", "baseline file (default: the bundled baselines/default.json)")
-      .option("--prevalence <share>", "share of flagged apps in your population: shift the risk to it from the training base rate", openUnit)
-      .option("--policy <file>", "evaluate this policy's rules too (repeatable; see overask rules)", collect)
-      .option("--no-code", "skip reading the app's dex code for code evidence (APKs and bundles)")
-      .addOption(new Option("-f, --format <format>", "output format").choices(formats).default("text"));
-
-  judging(program.command("check"), ["text", "json", "sarif", "html"])
+function addCheck(program: Command, io: Io, setExit: SetExit): void {
+  withGates(withJudgingOptions(program.command("check")), "there is")
+    .addOption(formatOption(["text", "json", "sarif", "html"]))
     .description("judge apps against their category's baseline: uncommon permissions, other checks, and the risk estimate")
-    .argument("[file...]", "APKs, binary or plain manifests")
-    .addOption(new Option("--fail-on <level>", "exit 1 when a finding is at or above this level").choices(["error", "warning", "note"]))
-    .option("--max-risk <p>", "exit 1 when an app's risk is above this probability", closedUnit)
-    .option("--level <check=level>", "override a check's level: error, warning, note or off (repeatable)", collectLevels)
+    .argument("[file...]", `apps or manifests: ${kindsInWords()}`)
     .option("--records <corpus>", "score pre-extracted records (JSONL, wide CSV) instead of files: one JSON line per record")
     .option("--id-field <name>", "with --records: field or column with the app id")
     .option("--category-field <name>", "with --records: field or column with the category")
@@ -106,11 +148,12 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
     .option("--columns-kind <kind>", "with --records: keep columns of this kind")
     .action(async (files: string[], o: import("./check-command.js").CheckCliOptions) => {
       const { checkCommand } = await import("./check-command.js");
-      exitCode = await checkCommand(files, o, io);
+      setExit(await checkCommand(files, o, io));
     });
+}
 
-  program
-    .command("sweep")
+function addSweep(program: Command, io: Io, setExit: SetExit): void {
+  withGates(withJudgingOptions(program.command("sweep"), "category for every input (otherwise the index CSV's, then android:appCategory)"), "an app has")
     .description("screen an inventory: every APK, bundle or manifest under a folder, in a list, or in an index CSV")
     .argument("<source>", "a folder, a list of files (one a line), or an index CSV (file,category)")
     .requiredOption("-o, --output <file>", "results file (one row per input)")
@@ -119,22 +162,15 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
     .option("-j, --jobs <n>", "worker threads (default: the number of cores)", wholeNumber(1))
     .option("--resume", "continue an interrupted run: skip inputs already in the results with the same size and time")
     .option("--shard <i/n>", "process the i-th of n stable parts of the inputs (for several machines)", shardParser)
-    .option("-c, --category <name>", "category for every input (otherwise the index CSV's, then android:appCategory)")
-    .option("--categories <file>", "CSV mapping package names to categories (package,category)")
-    .option("-b, --baseline <file>", "baseline file (default: the bundled baselines/default.json)")
-    .option("--level <check=level>", "override a check's level (repeatable)", collectLevels)
-    .option("--prevalence <share>", "share of flagged apps in your population: shift the risk to it from the training base rate", openUnit)
-    .option("--policy <file>", "evaluate this policy's rules too (repeatable; see overask rules)", collect)
-    .option("--no-code", "skip reading each app's dex code for code evidence (APKs and bundles)")
     .option("--queue <redis-url>", "spread the inputs over workers through a Redis queue: redis[s]://host:port/<queue name> (workers run overask work)")
     .option("--clear-queue", "with --queue: drop another sweep's jobs found in the queue instead of refusing")
-    .addOption(new Option("--fail-on <level>", "exit 1 when an app has a finding at or above this level").choices(["error", "warning", "note"]))
-    .option("--max-risk <p>", "exit 1 when an app's risk is above this probability", closedUnit)
     .action(async (source: string, o: import("./sweep-command.js").SweepCliOptions) => {
       const { sweepCommand } = await import("./sweep-command.js");
-      exitCode = await sweepCommand(source, o, io);
+      setExit(await sweepCommand(source, o, io));
     });
+}
 
+function addWork(program: Command, io: Io, setExit: SetExit): void {
   program
     .command("work")
     .description("take a queued sweep's jobs (from sweep --queue) until stopped; run it on any number of machines that can read the inputs")
@@ -144,10 +180,13 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
     .option("--drain", "stop once the queue has nothing left to run")
     .action(async (url: string, o: import("./work-command.js").WorkCliOptions) => {
       const { workCommand } = await import("./work-command.js");
-      exitCode = await workCommand(url, o, io);
+      setExit(await workCommand(url, o, io));
     });
+}
 
-  judging(program.command("trim"), ["text", "json"])
+function addTrim(program: Command, io: Io, setExit: SetExit): void {
+  withJudgingOptions(program.command("trim"))
+    .addOption(formatOption(["text", "json"]))
     .description("for developers: permissions worth removing, most risk-lowering first, with the manifest change")
     .argument("<file>", "the app's AndroidManifest.xml (source or merged) or APK")
     .option("--merge-report <file>", "the build's manifest-merger report, to name the library that adds each permission")
@@ -156,43 +195,51 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
     .option("--write <file>", "write a patched copy of the source manifest")
     .option("--in-place", "patch the source manifest itself")
     .option("--remove-used", "with --write/--in-place: also remove permissions the app's code uses (left by default)")
-    .option("--level <check=level>", "override a check's level (repeatable)", collectLevels)
     .action(async (file: string, o: import("./trim-command.js").TrimCliOptions) => {
       const { trimCommand } = await import("./trim-command.js");
-      exitCode = await trimCommand(file, o, io);
+      setExit(await trimCommand(file, o, io));
     });
+}
 
-  judging(program.command("delta"), ["text", "json"])
+function addDelta(program: Command, io: Io, setExit: SetExit): void {
+  withJudgingOptions(program.command("delta"))
+    .addOption(formatOption(["text", "json"]))
     .description("for reviewers of an update: what changed between two versions of an app")
     .argument("<old>", "the earlier APK or manifest")
     .argument("<new>", "the later APK or manifest")
     .action(async (before: string, after: string, o: import("./delta-command.js").DeltaCliOptions) => {
       const { deltaCommand } = await import("./delta-command.js");
-      exitCode = await deltaCommand(before, after, o, io);
+      setExit(await deltaCommand(before, after, o, io));
     });
+}
 
+function addBaseline(program: Command, io: Io, setExit: SetExit): void {
   program
     .command("baseline")
     .description("show what a baseline knows: categories, era, provenance; rates for a category or a permission")
     .argument("[file]", "baseline file (default: the bundled baselines/default.json)")
     .option("-c, --category <name>", "list the rate of every permission this category's apps request")
     .option("-p, --permission <name>", "list this permission's rate in every category (bare platform names allowed)")
-    .addOption(new Option("-f, --format <format>", "output format").choices(["text", "json"]).default("text"))
+    .addOption(formatOption(["text", "json"]))
     .action(async (file: string | undefined, o: import("./baseline-command.js").BaselineCliOptions) => {
       const { baselineCommand } = await import("./baseline-command.js");
-      exitCode = baselineCommand(file, o, io);
+      setExit(baselineCommand(file, o, io));
     });
+}
 
+function addRules(program: Command, io: Io, setExit: SetExit): void {
   program
     .command("rules")
     .description("list the policy rules in force (the given policy files), or the bundled policies, with their sources")
     .option("--policy <file>", "a policy file (repeatable)", collect)
-    .addOption(new Option("-f, --format <format>", "output format").choices(["text", "json"]).default("text"))
+    .addOption(formatOption(["text", "json"]))
     .action(async (o: { policy?: string[]; format: "text" | "json" }) => {
       const { rulesCommand } = await import("./rules-command.js");
-      exitCode = rulesCommand(o, io);
+      setExit(rulesCommand(o, io));
     });
+}
 
+function addFold(program: Command, io: Io, setExit: SetExit): void {
   program
     .command("fold")
     .description("add up baselines learned on separate corpora (counts merge exactly; risk models do not)")
@@ -200,29 +247,27 @@ export async function run(argv: string[], io: Io = processIo): Promise<number> {
     .requiredOption("-o, --output <file>", "baseline file to write")
     .action(async (files: string[], o: { output: string }) => {
       const { foldCommand } = await import("./learn-command.js");
-      exitCode = foldCommand(files, o.output, io);
+      setExit(foldCommand(files, o.output, io));
     });
+}
 
-  try {
-    await program.parseAsync(argv, { from: "user" });
-  } catch (e) {
-    if (e instanceof UsageError) {
-      io.stderr.write(`overask: ${e.message}\n`);
-      return EXIT.USAGE;
-    }
-    if (e instanceof CommanderError) {
-      // --help and --version end here too, with code 0.
-      return e.exitCode === 0 ? EXIT.OK : EXIT.USAGE;
-    }
-    if (e instanceof OveraskError) {
-      io.stderr.write(`overask: ${describeForCli(e)}\n`);
-      if (debug && e.stack) io.stderr.write(`${e.stack}\n`);
-      // A queue that cannot be reached or used is an input the run could not read (exit-codes.ts).
-      return e instanceof OutputError ? EXIT.OUTPUT : EXIT.INPUT;
-    }
-    io.stderr.write(`overask: internal error: ${(e as Error)?.message ?? String(e)}${debug ? "" : " (rerun with --debug for details)"}\n`);
-    if (debug && e instanceof Error && e.stack) io.stderr.write(`${e.stack}\n`);
-    return EXIT.INTERNAL;
+/** The exit code of an error that ended a command, after its one line on stderr. */
+function exitCodeOf(e: unknown, io: Io, debug: boolean): number {
+  if (e instanceof UsageError) {
+    io.stderr.write(`overask: ${e.message}\n`);
+    return EXIT.USAGE;
   }
-  return exitCode;
+  if (e instanceof CommanderError) {
+    // --help and --version end here too, with code 0.
+    return e.exitCode === 0 ? EXIT.OK : EXIT.USAGE;
+  }
+  if (e instanceof OveraskError) {
+    io.stderr.write(`overask: ${describeForCli(e)}\n`);
+    if (debug && e.stack) io.stderr.write(`${e.stack}\n`);
+    // A queue that cannot be reached or used is an input the run could not read (exit-codes.ts).
+    return e instanceof OutputError ? EXIT.OUTPUT : EXIT.INPUT;
+  }
+  io.stderr.write(`overask: internal error: ${(e as Error)?.message ?? String(e)}${debug ? "" : " (rerun with --debug for details)"}\n`);
+  if (debug && e instanceof Error && e.stack) io.stderr.write(`${e.stack}\n`);
+  return EXIT.INTERNAL;
 }
