@@ -130,30 +130,40 @@ function mutf8(bytes: Uint8Array, start: number, units: number, fail: (m: string
   return out;
 }
 
-export function readDex(bytes: Uint8Array): DexFile {
-  const fail = (m: string) => new DexError(m);
-  const r = new ByteReader(bytes, fail);
+/** An id table of the header: its entry count and offset, checked to lie inside the file. */
+interface IdTable {
+  size: number;
+  off: number;
+}
+
+/** The header's checks and its id tables (header_item, dex format). */
+function readHeader(bytes: Uint8Array, r: ByteReader): { version: string; strT: IdTable; typeT: IdTable; protoT: IdTable; fieldT: IdTable; methodT: IdTable; classT: IdTable } {
   checkLimit("MAX_DEX_BYTES", bytes.length, "dex file has a size in bytes of");
   if (!looksLikeDex(bytes)) throw new DexError("is not a dex file (no dex magic)");
   const version = String.fromCharCode(bytes[4], bytes[5], bytes[6]);
   if (!/^0(3[5-9]|4[01])$/.test(version)) throw new DexError(`has dex version ${version}; versions 035 to 041 are read`);
   // header_item: endian_tag (0x28), then size/offset pairs of each id table.
   if (r.u32(0x28, "header endian_tag") !== 0x12345678) throw new DexError("is byte-swapped (endian_tag is not 0x12345678); only little-endian dex files exist on devices");
-  const table = (at: number, what: string, limit: "MAX_DEX_IDS", entry: number) => {
+  const table = (at: number, what: string, entry: number): IdTable => {
     const size = r.u32(at, `${what}_size`);
     const off = r.u32(at + 4, `${what}_off`);
-    checkLimit(limit, size, `dex ${what} declares a count of`);
+    checkLimit("MAX_DEX_IDS", size, `dex ${what} declares a count of`);
     if (size) r.need(off, size * entry, `${what} table`);
     return { size, off };
   };
-  const strT = table(0x38, "string_ids", "MAX_DEX_IDS", 4);
-  const typeT = table(0x40, "type_ids", "MAX_DEX_IDS", 4);
-  const protoT = table(0x48, "proto_ids", "MAX_DEX_IDS", 12);
-  const fieldT = table(0x50, "field_ids", "MAX_DEX_IDS", 8);
-  const methodT = table(0x58, "method_ids", "MAX_DEX_IDS", 8);
-  const classT = table(0x60, "class_defs", "MAX_DEX_IDS", 32);
+  return {
+    version,
+    strT: table(0x38, "string_ids", 4),
+    typeT: table(0x40, "type_ids", 4),
+    protoT: table(0x48, "proto_ids", 12),
+    fieldT: table(0x50, "field_ids", 8),
+    methodT: table(0x58, "method_ids", 8),
+    classT: table(0x60, "class_defs", 32),
+  };
+}
 
-  // The string table is walked now (every offset and length checked); the text is decoded when asked for.
+/** The string table, walked now (every offset and length checked); each string decoded when first asked for. */
+function stringTable(bytes: Uint8Array, r: ByteReader, strT: IdTable) {
   const starts = new Uint32Array(strT.size);
   const lengths = new Uint32Array(strT.size);
   const bytesLength = bytes.length;
@@ -161,7 +171,7 @@ export function readDex(bytes: Uint8Array): DexFile {
   const sv = r.view;
   const at = { p: 0 };
   for (let i = 0; i < strT.size; i++) {
-    at.p = sv.getUint32(strT.off + 4 * i, true); // inside the table, checked by table()
+    at.p = sv.getUint32(strT.off + 4 * i, true); // inside the table, checked by readHeader()
     const units = uleb(bytes, at, "string length");
     const p = at.p;
     if (units > maxLength) checkLimit("MAX_STRING_LENGTH", units, "dex string declares a length of");
@@ -170,6 +180,7 @@ export function readDex(bytes: Uint8Array): DexFile {
     lengths[i] = units;
   }
   const decoded = new Array<string | undefined>(strT.size);
+  const fail = (m: string) => new DexError(m);
   const stringAt = (i: number): string => {
     if (!(i >= 0 && i < strT.size)) throw new DexError(`string ${i} is past the ${strT.size} strings`);
     let v = decoded[i];
@@ -180,9 +191,22 @@ export function readDex(bytes: Uint8Array): DexFile {
     if (i >= strT.size) throw new DexError(`${what} names string ${i}, past the ${strT.size} strings`);
     return stringAt(i);
   };
-  // Each id table lies inside the file (checked by table()): its entries are read directly. Types, protos,
-  // methods and fields are made when first asked for (a dex names far more than any caller looks up); a
-  // bad index among them is a DexError then.
+  const startsWith = (i: number, prefix: string): boolean => {
+    if (!(i >= 0 && i < strT.size) || lengths[i] < prefix.length) return false;
+    const p = starts[i];
+    for (let k = 0; k < prefix.length; k++) if (bytes[p + k] !== prefix.charCodeAt(k)) return false;
+    return true;
+  };
+  return { stringAt, str, startsWith };
+}
+
+/**
+ * Types, protos, methods and fields, made when first asked for (a dex names far more than any caller looks
+ * up); a bad index among them is a DexError then. Each id table lies inside the file (readHeader()), so its
+ * entries are read directly.
+ */
+function idLookups(r: ByteReader, h: ReturnType<typeof readHeader>, str: (i: number, what: string) => string) {
+  const { typeT, protoT, fieldT, methodT } = h;
   const dv = r.view;
   const typeCache = new Array<string | undefined>(typeT.size);
   const type = (i: number, what: string): string => {
@@ -222,18 +246,23 @@ export function readDex(bytes: Uint8Array): DexFile {
     const pr = proto(protoIdx);
     return (methodCache[i] = m = { owner: type(dv.getUint16(base, true), "method_id"), name: str(dv.getUint32(base + 4, true), "method_id"), params: pr.params, returns: pr.returns });
   };
+  return { type, field, method };
+}
 
+/** Every class_def with the methods, fields and strings its code refers to. */
+function readClasses(bytes: Uint8Array, r: ByteReader, h: ReturnType<typeof readHeader>, type: (i: number, what: string) => string): DexClass[] {
+  const { strT, fieldT, methodT, classT } = h;
   const classes: DexClass[] = [];
   let codeUnits = 0;
   // Which class last noted each id: a reference is listed once per class without a set per class.
   const seen = { m: new Int32Array(methodT.size), f: new Int32Array(fieldT.size), s: new Int32Array(strT.size) };
-  const newRefs = (stamp: number): Refs => ({ stamp, m: [], f: [], s: [], seen });
+  const sizes = { strings: strT.size, methods: methodT.size, fields: fieldT.size };
   for (let i = 0; i < classT.size; i++) {
     const base = classT.off + 32 * i;
     const descriptor = type(r.u32(base, "class_def class_idx"), "class_def");
     const superIdx = r.u32(base + 8, "class_def superclass_idx");
     const dataOff = r.u32(base + 24, "class_def class_data_off");
-    const refs = newRefs(i + 1);
+    const refs: Refs = { stamp: i + 1, m: [], f: [], s: [], seen };
     if (dataOff) {
       const at = { p: dataOff };
       const next = (what: string): number => uleb(bytes, at, what);
@@ -254,40 +283,44 @@ export function readDex(bytes: Uint8Array): DexFile {
         codeUnits += insns;
         checkLimit("MAX_DEX_CODE_UNITS", codeUnits, "dex code holds instructions, in 16-bit units, to a count of");
         r.need(codeOff + 16, 2 * insns, "code_item insns");
-        scanCode(r, codeOff + 16, insns, refs, { strings: strT.size, methods: methodT.size, fields: fieldT.size });
+        scanCode(r, codeOff + 16, insns, refs, sizes);
       }
     }
     classes.push({ descriptor, ...(superIdx !== NO_INDEX ? { superclass: type(superIdx, "class_def superclass") } : {}), methodRefs: refs.m, fieldRefs: refs.f, stringRefs: refs.s });
   }
+  return classes;
+}
+
+export function readDex(bytes: Uint8Array): DexFile {
+  const r = new ByteReader(bytes, (m: string) => new DexError(m));
+  const h = readHeader(bytes, r);
+  const strings = stringTable(bytes, r, h.strT);
+  const { type, field, method } = idLookups(r, h, strings.str);
+  const classes = readClasses(bytes, r, h, type);
   let all: string[] | undefined;
   return {
-    version,
-    stringCount: strT.size,
-    string: stringAt,
-    stringStartsWith(i: number, prefix: string): boolean {
-      if (!(i >= 0 && i < strT.size) || lengths[i] < prefix.length) return false;
-      const at = starts[i];
-      for (let k = 0; k < prefix.length; k++) if (bytes[at + k] !== prefix.charCodeAt(k)) return false;
-      return true;
-    },
+    version: h.version,
+    stringCount: h.strT.size,
+    string: strings.stringAt,
+    stringStartsWith: strings.startsWith,
     get strings() {
-      if (!all) all = Array.from({ length: strT.size }, (_, i) => stringAt(i));
+      if (!all) all = Array.from({ length: h.strT.size }, (_, i) => strings.stringAt(i));
       return all;
     },
-    typeCount: typeT.size,
+    typeCount: h.typeT.size,
     type: (i: number) => type(i, "type"),
-    methodCount: methodT.size,
+    methodCount: h.methodT.size,
     method,
-    fieldCount: fieldT.size,
+    fieldCount: h.fieldT.size,
     field,
     get types() {
-      return Array.from({ length: typeT.size }, (_, i) => type(i, "type"));
+      return Array.from({ length: h.typeT.size }, (_, i) => type(i, "type"));
     },
     get methods() {
-      return Array.from({ length: methodT.size }, (_, i) => method(i));
+      return Array.from({ length: h.methodT.size }, (_, i) => method(i));
     },
     get fields() {
-      return Array.from({ length: fieldT.size }, (_, i) => field(i));
+      return Array.from({ length: h.fieldT.size }, (_, i) => field(i));
     },
     classes,
   };
