@@ -66,17 +66,70 @@ interface Hit {
   packages: Set<string>;
 }
 
-export function codeEvidence(manifest: Manifest, dexes: readonly DexInput[], map: ApiPermissionMap = apiPermissionMap()): CodeEvidence {
-  const hits = new Map<string, Hit>();
-  const hit = (kind: EvidenceItem["kind"], what: string, entry: MapEntry, cls?: string) => {
-    const key = `${kind} ${what}`;
-    let h = hits.get(key);
-    if (!h) hits.set(key, (h = { item: { kind, what, source: entry.source }, permissions: entry.permissions, classes: new Set(), packages: new Set() }));
-    if (cls !== undefined) {
-      h.classes.add(cls);
-      h.packages.add(packageGroup(cls, manifest.package));
+type Hits = Map<string, Hit>;
+
+/** Notes one piece of evidence, credited to the class (or manifest component) that holds it. */
+function addHit(hits: Hits, appPackage: string, kind: EvidenceItem["kind"], what: string, entry: MapEntry, cls?: string): void {
+  const key = `${kind} ${what}`;
+  let h = hits.get(key);
+  if (!h) hits.set(key, (h = { item: { kind, what, source: entry.source }, permissions: entry.permissions, classes: new Set(), packages: new Set() }));
+  if (cls !== undefined) {
+    h.classes.add(cls);
+    h.packages.add(packageGroup(cls, appPackage));
+  }
+}
+
+/** Every mapped method, field, content URI and broadcast action the dex's classes refer to. */
+function scanDex(dex: DexFile, map: ApiPermissionMap, hits: Hits, appPackage: string): void {
+  // Each referenced method/field/string is looked up once per dex, then credited to its classes.
+  const methodKeys = new Map<number, { what: string; entry: MapEntry } | null>();
+  const methodEntry = (i: number) => {
+    let r = methodKeys.get(i);
+    if (r === undefined) {
+      const m = dex.method(i);
+      const owner = javaName(m.owner);
+      if (!map.methodOwners.has(owner)) {
+        methodKeys.set(i, null);
+        return null;
+      }
+      const exact = `${owner}.${m.name}(${m.params.map(javaName).join(",")})${javaName(m.returns)}`;
+      // The published map names one overload; the own table every overload. Both count.
+      const e = map.methods.get(exact);
+      const any = map.methodsAnyOverload.get(`${owner}.${m.name}`);
+      const entry = e && any ? { permissions: [...new Set([...e.permissions, ...any.permissions])], source: `${e.source}; ${any.source}` } : (e ?? any);
+      r = entry ? { what: e ? exact : `${owner}.${m.name}`, entry } : null;
+      methodKeys.set(i, r);
     }
+    return r;
   };
+  for (const c of dex.classes) {
+    const cls = javaName(c.descriptor);
+    for (const i of c.methodRefs) {
+      const r = methodEntry(i);
+      if (r) addHit(hits, appPackage, "method", r.what, r.entry, cls);
+    }
+    for (const i of c.fieldRefs) {
+      const f = dex.field(i);
+      const what = `${javaName(f.owner)}.${f.name}`;
+      const e = map.fields.get(what);
+      if (e) addHit(hits, appPackage, "field", what, e, cls);
+    }
+    for (const i of c.stringRefs) {
+      // Only content URIs and broadcast actions matter: other strings are never decoded.
+      if (dex.stringStartsWith(i, "content://")) {
+        const u = uriEntry(map, dex.string(i));
+        if (u) addHit(hits, appPackage, "uri", u.uri, u.entry, cls);
+      } else if (dex.stringStartsWith(i, "android.")) {
+        const s = dex.string(i);
+        const a = map.actions.get(s);
+        if (a) addHit(hits, appPackage, "action", s, a, cls);
+      }
+    }
+  }
+}
+
+export function codeEvidence(manifest: Manifest, dexes: readonly DexInput[], map: ApiPermissionMap = apiPermissionMap()): CodeEvidence {
+  const hits: Hits = new Map();
   const read: CodeEvidence["read"] = [];
   const problems: string[] = [];
   for (const input of dexes) {
@@ -84,61 +137,13 @@ export function codeEvidence(manifest: Manifest, dexes: readonly DexInput[], map
       problems.push(`could not read ${input.entry}: ${input.problem ?? "unknown problem"}`);
       continue;
     }
-    const dex = input.dex;
     try {
-      scanDex(dex);
-      read.push({ entry: input.entry, classes: dex.classes.length });
+      scanDex(input.dex, map, hits, manifest.package);
+      read.push({ entry: input.entry, classes: input.dex.classes.length });
     } catch (e) {
       // A string decoded only now can still be damaged: the dex's evidence so far is kept, and the damage said.
       if (!(e instanceof InputError)) throw e;
       problems.push(`could not read ${input.entry}: ${e.detail()}`);
-    }
-  }
-  function scanDex(dex: DexFile): void {
-    // Each referenced method/field/string is looked up once per dex, then credited to its classes.
-    const methodKeys = new Map<number, { what: string; entry: MapEntry } | null>();
-    const methodEntry = (i: number) => {
-      let r = methodKeys.get(i);
-      if (r === undefined) {
-        const m = dex.method(i);
-        const owner = javaName(m.owner);
-        if (!map.methodOwners.has(owner)) {
-          methodKeys.set(i, null);
-          return null;
-        }
-        const exact = `${owner}.${m.name}(${m.params.map(javaName).join(",")})${javaName(m.returns)}`;
-        // The published map names one overload; the own table every overload. Both count.
-        const e = map.methods.get(exact);
-        const any = map.methodsAnyOverload.get(`${owner}.${m.name}`);
-        const entry = e && any ? { permissions: [...new Set([...e.permissions, ...any.permissions])], source: `${e.source}; ${any.source}` } : (e ?? any);
-        r = entry ? { what: e ? exact : `${owner}.${m.name}`, entry } : null;
-        methodKeys.set(i, r);
-      }
-      return r;
-    };
-    for (const c of dex.classes) {
-      const cls = javaName(c.descriptor);
-      for (const i of c.methodRefs) {
-        const r = methodEntry(i);
-        if (r) hit("method", r.what, r.entry, cls);
-      }
-      for (const i of c.fieldRefs) {
-        const f = dex.field(i);
-        const what = `${javaName(f.owner)}.${f.name}`;
-        const e = map.fields.get(what);
-        if (e) hit("field", what, e, cls);
-      }
-      for (const i of c.stringRefs) {
-        // Only content URIs and broadcast actions matter: other strings are never decoded.
-        if (dex.stringStartsWith(i, "content://")) {
-          const u = uriEntry(map, dex.string(i));
-          if (u) hit("uri", u.uri, u.entry, cls);
-        } else if (dex.stringStartsWith(i, "android.")) {
-          const s = dex.string(i);
-          const a = map.actions.get(s);
-          if (a) hit("action", s, a, cls);
-        }
-      }
     }
   }
   for (const comp of manifest.components) {
@@ -146,20 +151,24 @@ export function codeEvidence(manifest: Manifest, dexes: readonly DexInput[], map
     for (const f of comp.intentFilters)
       for (const action of f.actions) {
         const e = map.actions.get(action);
-        if (e) hit("receiver", action, e, comp.name);
+        if (e) addHit(hits, manifest.package, "receiver", action, e, comp.name);
       }
   }
+  return { read, problems, ...byPermission(manifest, hits, map, read.length > 0), blindSpots: BLIND_SPOTS };
+}
 
-  const byPermission = new Map<string, Hit[]>();
-  for (const h of hits.values()) for (const p of h.permissions) byPermission.set(p, [...(byPermission.get(p) ?? []), h]);
+/** The evidence sorted out per requested permission, and what the code reaches that the app does not request. */
+function byPermission(manifest: Manifest, hits: Hits, map: ApiPermissionMap, anyRead: boolean): Pick<CodeEvidence, "permissions" | "unrequested"> {
+  const byPerm = new Map<string, Hit[]>();
+  for (const h of hits.values()) for (const p of h.permissions) byPerm.set(p, [...(byPerm.get(p) ?? []), h]);
   const toItems = (list: Hit[] = []): EvidenceItem[] =>
     list
       .map((h) => ({ ...h.item, classes: h.item.kind === "receiver" ? 0 : h.classes.size, packages: [...h.packages].sort(ownFirst(manifest.package)) }))
       .sort((a, b) => b.classes - a.classes || compareText(a.what, b.what));
   // With no dex read (all damaged), nothing can be said per permission: only the problems.
-  const requested = read.length ? requestedPermissionNames(manifest) : [];
+  const requested = anyRead ? requestedPermissionNames(manifest) : [];
   const permissions = requested.map((permission): PermissionEvidence => {
-    const evidence = toItems(byPermission.get(permission));
+    const evidence = toItems(byPerm.get(permission));
     const users = [...new Set(evidence.flatMap((e) => e.packages))].sort(ownFirst(manifest.package));
     const status: CodeStatus = evidence.length ? "used" : map.covered.has(permission) ? "not-seen" : "not-mappable";
     return { permission, status, evidence, users, onlyLibraries: users.length > 0 && !users.includes(manifest.package) };
@@ -169,7 +178,7 @@ export function codeEvidence(manifest: Manifest, dexes: readonly DexInput[], map
     .filter((h) => !h.permissions.some((p) => asked.has(p)))
     .map((h) => ({ permissions: [...h.permissions].sort(), evidence: toItems([h])[0] }))
     .sort((a, b) => compareText(a.permissions[0], b.permissions[0]) || compareText(a.evidence.what, b.evidence.what));
-  return { read, problems, permissions, unrequested, blindSpots: BLIND_SPOTS };
+  return { permissions, unrequested };
 }
 
 function ownFirst(own: string): (a: string, b: string) => number {

@@ -139,82 +139,7 @@ export function buildManifest(doc: XmlDocument, input: InputInfo, resolve?: Refe
   if (codename !== undefined) m.compileSdkCodename = codename;
 
   const pending: { el: XmlElement; kind: ComponentKind }[] = [];
-  for (const el of root.children) {
-    switch (el.name) {
-      case "uses-sdk": {
-        const min = rd.sdk(el, "minSdkVersion");
-        const target = rd.sdk(el, "targetSdkVersion");
-        const max = rd.sdk(el, "maxSdkVersion");
-        if (min !== undefined) m.minSdk = min;
-        if (target !== undefined) m.targetSdk = target;
-        if (max !== undefined) m.maxSdk = max;
-        break;
-      }
-      case "uses-permission":
-      case "uses-permission-sdk-23":
-      case "uses-permission-sdk-m": {
-        const name = rd.string(el, "name");
-        if (!name) {
-          rd.notes.push(`${el.path}: <${el.name}> without android:name ignored`);
-          break;
-        }
-        const p: RequestedPermission = {
-          name,
-          element: el.name as RequestedPermission["element"],
-          facts: { origin: "other" },
-          source: where(el),
-        };
-        const max = rd.int(el, "maxSdkVersion");
-        if (max !== undefined) p.maxSdkVersion = max;
-        if (rd.toolsRemove(el)) p.removedByTools = true;
-        m.usesPermissions.push(p);
-        break;
-      }
-      case "permission": {
-        const name = rd.string(el, "name");
-        if (!name) break;
-        const a = rd.attr(el, "protectionLevel");
-        const v = a?.value;
-        const level = !v ? protectionFromInt(0) : v.kind === "int" ? protectionFromInt(v.value) : protectionFromText(valueToText(v));
-        const d: DeclaredPermission = { name, protectionLevel: level, source: where(el) };
-        const group = rd.string(el, "permissionGroup");
-        if (group) d.permissionGroup = group;
-        m.declaredPermissions.push(d);
-        break;
-      }
-      case "permission-group": {
-        const name = rd.string(el, "name");
-        if (name) m.permissionGroups.push({ name, source: where(el) });
-        break;
-      }
-      case "uses-feature": {
-        const name = rd.string(el, "name");
-        const gl = rd.int(el, "glEsVersion");
-        m.usesFeatures.push({
-          ...(name ? { name } : {}),
-          ...(gl !== undefined ? { glEsVersion: `${gl >>> 16}.${gl & 0xffff}` } : {}),
-          required: rd.bool(el, "required") ?? true,
-          source: where(el),
-        });
-        break;
-      }
-      case "queries":
-        for (const q of el.children) {
-          if (q.name === "package") {
-            const n = rd.string(q, "name");
-            if (n) m.queries.packages.push(n);
-          } else if (q.name === "intent") m.queries.intents.push(readIntentFilter(rd, q));
-          else if (q.name === "provider") {
-            const a = rd.string(q, "authorities");
-            if (a) m.queries.providers.push(a);
-          }
-        }
-        break;
-      case "application":
-        readApplication(rd, el, m, pending);
-        break;
-    }
-  }
+  for (const el of root.children) readTopElement(rd, el, m, pending);
 
   annotatePermissions(m);
   noteDuplicates(m);
@@ -222,6 +147,84 @@ export function buildManifest(doc: XmlDocument, input: InputInfo, resolve?: Refe
   const target = m.targetSdk ?? m.minSdk ?? 1;
   for (const { el, kind } of pending) m.components.push(readComponent(rd, el, kind, pkg, target));
   return m;
+}
+
+/** One child of <manifest>: uses-sdk, permissions requested and declared, features, queries, application. */
+function readTopElement(rd: Reader, el: XmlElement, m: Manifest, pending: { el: XmlElement; kind: ComponentKind }[]): void {
+  switch (el.name) {
+    case "uses-sdk": {
+      const min = rd.sdk(el, "minSdkVersion");
+      const target = rd.sdk(el, "targetSdkVersion");
+      const max = rd.sdk(el, "maxSdkVersion");
+      if (min !== undefined) m.minSdk = min;
+      if (target !== undefined) m.targetSdk = target;
+      if (max !== undefined) m.maxSdk = max;
+      break;
+    }
+    case "uses-permission":
+    case "uses-permission-sdk-23":
+    case "uses-permission-sdk-m": {
+      const name = rd.string(el, "name");
+      if (!name) {
+        rd.notes.push(`${el.path}: <${el.name}> without android:name ignored`);
+        break;
+      }
+      const p: RequestedPermission = {
+        name,
+        element: el.name as RequestedPermission["element"],
+        facts: { origin: "other" },
+        source: where(el),
+      };
+      const max = rd.int(el, "maxSdkVersion");
+      if (max !== undefined) p.maxSdkVersion = max;
+      if (rd.toolsRemove(el)) p.removedByTools = true;
+      m.usesPermissions.push(p);
+      break;
+    }
+    case "permission": {
+      const name = rd.string(el, "name");
+      if (!name) break;
+      const a = rd.attr(el, "protectionLevel");
+      const v = a?.value;
+      const level = !v ? protectionFromInt(0) : v.kind === "int" ? protectionFromInt(v.value) : protectionFromText(valueToText(v));
+      const d: DeclaredPermission = { name, protectionLevel: level, source: where(el) };
+      const group = rd.string(el, "permissionGroup");
+      if (group) d.permissionGroup = group;
+      m.declaredPermissions.push(d);
+      break;
+    }
+    case "permission-group": {
+      const name = rd.string(el, "name");
+      if (name) m.permissionGroups.push({ name, source: where(el) });
+      break;
+    }
+    case "uses-feature": {
+      const name = rd.string(el, "name");
+      const gl = rd.int(el, "glEsVersion");
+      m.usesFeatures.push({
+        ...(name ? { name } : {}),
+        ...(gl !== undefined ? { glEsVersion: `${gl >>> 16}.${gl & 0xffff}` } : {}),
+        required: rd.bool(el, "required") ?? true,
+        source: where(el),
+      });
+      break;
+    }
+    case "queries":
+      for (const q of el.children) {
+        if (q.name === "package") {
+          const n = rd.string(q, "name");
+          if (n) m.queries.packages.push(n);
+        } else if (q.name === "intent") m.queries.intents.push(readIntentFilter(rd, q));
+        else if (q.name === "provider") {
+          const a = rd.string(q, "authorities");
+          if (a) m.queries.providers.push(a);
+        }
+      }
+      break;
+    case "application":
+      readApplication(rd, el, m, pending);
+      break;
+  }
 }
 
 function readApplication(rd: Reader, app: XmlElement, m: Manifest, pending: { el: XmlElement; kind: ComponentKind }[]): void {
