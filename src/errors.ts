@@ -7,7 +7,7 @@
  */
 
 /** Problems a caller may know how to fix, named in `OveraskError.code`. */
-export type ErrorCode = "labels-one-class" | "validation-labels-one-class" | "fold-parameters-differ" | "fold-same-baseline";
+export type ErrorCode = "labels-one-class" | "validation-labels-one-class" | "fold-parameters-differ" | "fold-same-baseline" | "reject-limit";
 
 /**
  * Base of every error overask raises about something outside it: an input, an output, a queue. It names

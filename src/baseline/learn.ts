@@ -131,9 +131,8 @@ async function drain(source: CorpusSource, options: CorpusOptions, each: (r: Cor
     const first = rep.rejects[0];
     throw new CorpusError(
       `${rep.rejected} of ${rep.rows} rows rejected (${(100 * share).toFixed(1)}%), over the limit of ${(100 * rejectLimit).toFixed(1)}%` +
-        (first ? `; first at line ${first.line}: ${first.reason}` : "") +
-        " (list them with --rejects FILE, or raise --reject-limit)",
-      { file: path },
+        (first ? `; first at line ${first.line}: ${first.reason}` : ""),
+      { file: path, code: "reject-limit" },
     );
   }
   return rep;
@@ -186,14 +185,45 @@ export async function learn(options: LearnOptions): Promise<LearnResult> {
   // The era rule applies in training as in judging: terms of permissions newer than the corpus use the same rule.
   const era = corpusEra(counts, options.corpusYears);
   const baseline = new Baseline(counts, parameters, new Map(), era.api);
-  let model: StoredModel | null = null;
-  let noModel: string | undefined;
+  const { model, noModel } = await learnModel(baseline, sample, { labelReport, labelLicence, aliases, reports, inputs, rejectLimit, seed }, options);
+  const atypicality = atypicalityTable(baseline, frequencyApps.items);
+  const notes = learnNotes(reports, baseline, parameters, frequencyApps, model, noModel);
+
+  const file = newBaselineFile(
+    {
+      parameters: { ...parameters, aliases: Object.fromEntries([...aliases].sort()) },
+      provenance: { inputs, notes },
+      counts: counts.toJSON(),
+      era,
+      atypicality,
+      model,
+    },
+    options.createdAt,
+  );
+  return { file, reports, ...(noModel ? { noModel } : {}) };
+}
+
+/** What learning the model needs from the corpora read before it. */
+interface ModelInputs {
+  labelReport?: CorpusReport;
+  labelLicence?: string;
+  aliases: Map<string, string>;
+  reports: CorpusReport[];
+  inputs: InputProvenance[];
+  rejectLimit: number;
+  seed: number;
+}
+
+/** The risk model from the labeled rows, validated on each `--validate` corpus; none without labeled rows. */
+async function learnModel(baseline: Baseline, sample: LabeledSample, m: ModelInputs, options: LearnOptions): Promise<{ model: StoredModel | null; noModel?: string }> {
+  const { labelReport, labelLicence, aliases, reports, inputs, rejectLimit, seed } = m;
   const { rows: picked, of } = sample.rows();
   const positives = picked.filter((p) => p.record.label === 1).length;
-  if (picked.length === 0) noModel = "no labeled rows: the baseline has frequencies only";
-  else if (positives === 0 || positives === picked.length) {
+  if (picked.length === 0) return { model: null, noModel: "no labeled rows: the baseline has frequencies only" };
+  if (positives === 0 || positives === picked.length) {
     throw new CorpusError(`the labeled rows are all ${positives ? "flagged" : "unflagged"}: no risk model can be learned`, { file: labelReport?.source ?? "the labeled corpus", code: "labels-one-class" });
-  } else {
+  }
+  {
     const vocabulary = labelReport?.vocabulary ?? vocabularyOf(picked.map((p) => p.record));
     const hasCategories = picked.some((p) => p.record.category !== undefined);
     // Cross-fitting: a row that is also in the frequency counts is scored against counts without it.
@@ -216,7 +246,7 @@ export async function learn(options: LearnOptions): Promise<LearnResult> {
       if (pos === 0 || pos === vrows.length) throw new CorpusError(`its labeled rows are all ${pos ? "flagged" : "unflagged"}: no ROC AUC can be computed`, { file: v.source.name, code: "validation-labels-one-class" });
       trained.validation.push(validateModel(trained, vrows, name, overlap));
     }
-    model = {
+    const model: StoredModel = {
       ...trained,
       corpus: options.labelsName ?? labelReport?.source ?? "the labeled corpus",
       ...(labelLicence ? { corpusLicence: labelLicence } : {}),
@@ -224,8 +254,12 @@ export async function learn(options: LearnOptions): Promise<LearnResult> {
       featureBasis: hasCategories ? "category" : "pooled",
       ...(of > picked.length ? { sample: { of, taken: picked.length, seed } } : {}),
     };
+    return { model };
   }
-  const atypicality = atypicalityTable(baseline, frequencyApps.items);
+}
+
+/** The provenance notes: each corpus's own, then what a reader of the baseline should know of it. */
+function learnNotes(reports: CorpusReport[], baseline: Baseline, parameters: RateParameters, frequencyApps: Reservoir<unknown>, model: StoredModel | null, noModel: string | undefined): string[] {
   const notes: string[] = reports.flatMap((r) => r.notes.map((n) => `${r.source}: ${n}`));
   if (noModel) notes.push(noModel);
   if (model?.sample) notes.push(`the model was trained on a seeded stratified sample of ${model.sample.taken} of ${model.sample.of} labeled rows`);
@@ -233,18 +267,7 @@ export async function learn(options: LearnOptions): Promise<LearnResult> {
   if (frequencyApps.seen > frequencyApps.items.length) notes.push(`atypicality percentiles come from a seeded sample of ${frequencyApps.items.length} of ${frequencyApps.seen} apps`);
   for (const c of baseline.categorySummary()) if (c.pooled) notes.push(`category ${c.name} has ${c.apps} apps, below the minimum support of ${parameters.minSupport}: it uses the pooled baseline`);
 
-  const file = newBaselineFile(
-    {
-      parameters: { ...parameters, aliases: Object.fromEntries([...aliases].sort()) },
-      provenance: { inputs, notes },
-      counts: counts.toJSON(),
-      era,
-      atypicality,
-      model,
-    },
-    options.createdAt,
-  );
-  return { file, reports, ...(noModel ? { noModel } : {}) };
+  return notes;
 }
 
 function provenance(rep: CorpusReport, role: InputProvenance["role"], licence?: string): InputProvenance {

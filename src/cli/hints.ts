@@ -9,6 +9,7 @@ const HINTS: Record<ErrorCode, string> = {
   "validation-labels-one-class": "check --validate-label-field and --validate-positive",
   "fold-parameters-differ": "learn both with the same --prior, --prior-strength, --min-support, --confidence, --uncommon-below and --alias",
   "fold-same-baseline": "give each baseline once",
+  "reject-limit": "list them with --rejects FILE, or raise --reject-limit",
 };
 
 /** One line for a person: `file: message; what to do`. */
