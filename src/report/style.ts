@@ -28,8 +28,8 @@ export function fit(s: string, width: number): string {
 
 /**
  * Word-wraps `text` to `width` columns, continuation lines indented by `indent` spaces. A word longer than
- * a whole line (a long path) is split where it stands — after a `/` when one is near — instead of leaving
- * its label alone on a line.
+ * a whole line (a long path, a package name) is split after a separator — a `/` first, then `.`, `-`, `_`
+ * — and only where none is in reach, mid-word; its label is never left alone on a line.
  */
 export function wrap(text: string, width: number, indent: number): string[] {
   const lead = /^ */.exec(text)![0];
@@ -47,8 +47,13 @@ export function wrap(text: string, width: number, indent: number): string[] {
           line = " ".repeat(indent);
           continue;
         }
-        const slash = word.lastIndexOf("/", space - 1);
-        const cut = slash >= space / 2 ? slash + 1 : space;
+        const cut = cutPoint(word, space, !line.trim());
+        if (cut === undefined) {
+          // No separator late enough on this line: a fresh line has more room.
+          lines.push(line);
+          line = " ".repeat(indent);
+          continue;
+        }
         lines.push(line.trim() ? `${line} ${word.slice(0, cut)}` : line + word.slice(0, cut));
         line = " ".repeat(indent);
         word = word.slice(cut);
@@ -64,3 +69,20 @@ export function wrap(text: string, width: number, indent: number): string[] {
   return lines;
 }
 
+/**
+ * Where to split a long word so that its first part fits in `space` columns: after the last `/` in the
+ * second half of the room, else after the last `.`, `-` or `_` there. On a line that is already fresh
+ * (`space` is all there is), after any separator at all, else at `space` itself. Undefined: move to a
+ * fresh line first.
+ */
+function cutPoint(word: string, space: number, fresh = false): number | undefined {
+  const within = word.slice(0, space);
+  const last = (chars: string) => Math.max(...[...chars].map((c) => within.lastIndexOf(c)));
+  const slash = last("/");
+  if (slash + 1 >= space / 2) return slash + 1;
+  const other = last(".-_");
+  if (other + 1 >= space / 2) return other + 1;
+  if (!fresh) return undefined;
+  const any = Math.max(slash, other);
+  return any >= 0 ? any + 1 : space;
+}
