@@ -2,7 +2,7 @@
 import type { Policy, PolicyRule } from "../score/policy/policy.js";
 import { TOOL_VERSION } from "../version.js";
 import { PLAIN, wrap, type Style } from "./style.js";
-import { short } from "./format.js";
+import { pct, short } from "./format.js";
 
 
 function what(r: PolicyRule): string {
@@ -10,7 +10,7 @@ function what(r: PolicyRule): string {
   const kind = r.forbid
     ? `forbids ${r.forbid.map(short).join(" + ")}`
     : r.riskAbove !== undefined
-      ? `caps the risk at ${Math.round(100 * r.riskAbove)}%`
+      ? `caps the risk at ${pct(r.riskAbove)}`
       : r.atypicalityAbove !== undefined
         ? `caps the atypicality at the ${r.atypicalityAbove}th percentile`
         : r.limitBelow

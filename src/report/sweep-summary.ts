@@ -1,5 +1,6 @@
 /** The few lines `sweep` prints when it is done. */
 import { wrap } from "./style.js";
+import { pct } from "./format.js";
 
 export interface SweepTotals {
   inputs: number;
@@ -28,10 +29,10 @@ export function sweepSummaryText(s: SweepTotals): string {
   if (s.notManifests) out.push(`Passed over ${s.notManifests} .xml file${s.notManifests === 1 ? "" : "s"} that are not manifests (resource files).`);
   if (s.unknownCategory) out.push(`${s.unknownCategory} app${s.unknownCategory === 1 ? "" : "s"} named a category the baseline does not have: judged against all categories pooled (see the fallback column).`);
   const bands = ["high", "elevated", "low"].filter((b) => s.byBand[b]).map((b) => `${s.byBand[b]} ${b}`);
-  if (bands.length) out.push(`Risk bands: ${bands.join(", ")}${s.baseRate !== undefined ? ` (risks relative to a base rate of ${(100 * s.baseRate).toFixed(0)}% flagged in the labeled corpus)` : ""}.`);
+  if (bands.length) out.push(`Risk bands: ${bands.join(", ")}${s.baseRate !== undefined ? ` (risks relative to a base rate of ${pct(s.baseRate)} flagged in the labeled corpus)` : ""}.`);
   if (s.top.length) {
     out.push("Highest risks:");
-    for (const t of s.top.slice(0, 10)) out.push(`  ${(100 * t.risk).toFixed(0).padStart(3)}%  ${t.package ?? ""}  ${t.id}`);
+    for (const t of s.top.slice(0, 10)) out.push(`  ${pct(t.risk).padStart(5)}  ${t.package ?? ""}  ${t.id}`);
   }
   if (s.gated) out.push(`${s.gated} app${s.gated === 1 ? "" : "s"} at or above the --fail-on level or over --max-risk.`);
   out.push(`Results: ${s.output}${s.html ? `\nReport:  ${s.html}` : ""}`);

@@ -18,33 +18,6 @@ const LINES = readFileSync(CORPUS, "utf8").trim().split("\n");
 const dir = mkdtempSync(join(tmpdir(), "overask-learn-"));
 const frequenciesOnly = { labelField: "no-such-field" };
 
-describe("fold", () => {
-  for (const seed of [1, 2, 3]) {
-    it(`gives exactly the counts of learning on both parts at once (random split, seed ${seed})`, async () => {
-      const rand = seededRandom(seed);
-      const parts: string[][] = [[], []];
-      for (const line of LINES) parts[rand() < 0.4 ? 0 : 1].push(line);
-      const paths = parts.map((p, i) => {
-        const path = join(dir, `part${seed}-${i}.jsonl`);
-        writeFileSync(path, `${p.join("\n")}\n`);
-        return path;
-      });
-      const whole = await learn({ frequencies: [{ source: corpusFile(CORPUS), options: frequenciesOnly }] });
-      const a = await learn({ frequencies: [{ source: corpusFile(paths[0]), options: frequenciesOnly }] });
-      const b = await learn({ frequencies: [{ source: corpusFile(paths[1]), options: frequenciesOnly }] });
-      const folded = foldBaselines([{ path: paths[0], file: a.file }, { path: paths[1], file: b.file }]);
-      expect(folded.counts).toEqual(whole.file.counts);
-      expect(folded.model).toBeNull();
-    });
-  }
-
-  it("refuses baselines learned with different parameters", async () => {
-    const a = await learn({ frequencies: [{ source: corpusFile(CORPUS), options: frequenciesOnly }] });
-    const b = await learn({ frequencies: [{ source: corpusFile(CORPUS), options: frequenciesOnly }], parameters: { minSupport: 5 } });
-    expect(() => foldBaselines([{ path: "a.json", file: a.file }, { path: "b.json", file: b.file }])).toThrow(/parameters differ/);
-  });
-});
-
 describe("the risk model learned from the demo corpus", async () => {
   const result = await learn({ frequencies: [{ source: corpusFile(CORPUS), options: { labelField: "flagged", positive: ["yes"] } }] });
   const model = result.file.model!;
