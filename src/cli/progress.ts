@@ -13,11 +13,12 @@ export interface Progress {
 const silent: Progress = { update: () => {}, stop: () => {} };
 
 
-export function progressBar(stream: { isTTY?: boolean }): Progress {
+/** A bar on `stream` when it is a terminal; nothing otherwise (a pipe or a file gets no escape codes). */
+export function progressBar(stream: { isTTY?: boolean; write(s: string): unknown }): Progress {
   if (!stream.isTTY) return silent;
   const cp = createRequire(import.meta.url)("cli-progress") as typeof CliProgress;
   const bar = new cp.SingleBar(
-    { format: "{label} |{bar}| {percentage}% · {value}/{total} {unit} · {rate}/s · {eta_formatted} left", stream: process.stderr, hideCursor: true, clearOnComplete: true, etaBuffer: 50 },
+    { format: "{label} |{bar}| {percentage}% · {value}/{total} {unit} · {rate}/s · {eta_formatted} left", stream: stream as NodeJS.WritableStream, hideCursor: true, clearOnComplete: true, etaBuffer: 50 },
     cp.Presets.shades_classic,
   );
   let current: string | undefined;
