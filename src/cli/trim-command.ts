@@ -6,6 +6,7 @@ import { trimToJson, trimToText } from "../report/trim-delta.js";
 import { EXIT } from "./exit-codes.js";
 import type { Io } from "./io.js";
 import { judgeOptions, type JudgingCliOptions } from "./judging.js";
+import { short } from "../report/format.js";
 
 export interface TrimCliOptions extends JudgingCliOptions {
   format: "text" | "json";
@@ -33,6 +34,6 @@ export async function trimCommand(file: string, o: TrimCliOptions, io: Io): Prom
   if (unchanged) io.stderr.write(`overask: nothing to change in ${o.source ?? file}; left it as it was\n`);
   const changes = plan.candidates.length - (heldBack?.length ?? 0);
   if (written) io.stderr.write(`overask: wrote ${written} (${changes} change${changes === 1 ? "" : "s"})\n`);
-  if (heldBack?.length) io.stderr.write(`overask: left ${heldBack.map((p) => p.replace(/^android\.permission\./, "")).join(", ")}: the app's code uses ${heldBack.length === 1 ? "it" : "them"}; say --remove-used to remove ${heldBack.length === 1 ? "it" : "them"} too\n`);
+  if (heldBack?.length) io.stderr.write(`overask: left ${heldBack.map(short).join(", ")}: the app's code uses ${heldBack.length === 1 ? "it" : "them"}; say --remove-used to remove ${heldBack.length === 1 ? "it" : "them"} too\n`);
   return EXIT.OK;
 }

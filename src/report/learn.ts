@@ -5,7 +5,7 @@
 import type { BaselineFile } from "../baseline/baseline-file.js";
 import { TERM_DESCRIPTIONS, TERM_NAMES } from "../baseline/features.js";
 import { PLAIN, fit, wrap, type Style } from "./style.js";
-import { pct } from "./format.js";
+import { pct, short } from "./format.js";
 
 
 export function baselineSummary(file: BaselineFile, outPath: string, s: Style = PLAIN): string {
@@ -25,7 +25,7 @@ export function baselineSummary(file: BaselineFile, outPath: string, s: Style = 
   const p = file.parameters;
   if (file.era) {
     const e = file.era;
-    out.push("", ...wrap(`  era: API ${e.api}${e.years ? ` (apps of ${e.years})` : ""}${e.permission ? `, the newest level among permissions with real support (${e.permission.replace(/^android\.permission\./, "")}, ${e.apps} apps)` : ""}; newer permissions are judged by what they replaced, or not at all`, 80, 4));
+    out.push("", ...wrap(`  era: API ${e.api}${e.years ? ` (apps of ${e.years})` : ""}${e.permission ? `, the newest level among permissions with real support (${short(e.permission)}, ${e.apps} apps)` : ""}; newer permissions are judged by what they replaced, or not at all`, 80, 4));
   }
   out.push("", `  rates shrink toward the pooled rate (${p.prior.method === "fixed" ? `${p.prior.strength} pooled pseudo-apps` : `empirical-Bayes strength, capped at ${p.prior.strength}`}); uncommon: the ${pct(p.confidence, "fixed")} Wilson interval lies below ${pct(p.uncommonBelow, "fixed")}`);
   const m = file.model;
@@ -37,7 +37,7 @@ export function baselineSummary(file: BaselineFile, outPath: string, s: Style = 
     out.push(...wrap(`  logistic regression with every weight ≥ 0 (removing a permission never raises the risk), L2 penalty ${m.lambda} chosen by ${m.lambdaChoice.length}-way inner cross-validation; one weight per permission of the labeled corpus (${m.vocabulary.length}), and three terms against the app's category in the baseline${m.featureBasis === "pooled" ? " (training rows have no category: pooled)" : ""}${crossFitted ? ", cross-fitted (each app left out of the counts behind its own terms)" : ""}`, 80, 4));
     const top = m.vocabulary.map((p, j) => [p, m.permissionWeights[j]] as const).filter(([, w]) => w > 0).sort((x, y) => y[1] - x[1]);
     out.push(`  ${top.length} of ${m.vocabulary.length} permission weights are above 0; the largest:`);
-    for (const [p, w] of top.slice(0, 8)) out.push(`    ${w.toFixed(3).padStart(7)}  ${p.replace(/^android\.permission\./, "")}`);
+    for (const [p, w] of top.slice(0, 8)) out.push(`    ${w.toFixed(3).padStart(7)}  ${short(p)}`);
     TERM_NAMES.forEach((t, k) => out.push(`    ${m.termWeights[k].toFixed(3).padStart(7)}  × ${TERM_DESCRIPTIONS[t]}`));
     out.push(`  fit ${m.training.converged ? "converged" : s.warn("did not fully converge")} (KKT residual ${m.training.kktResidual.toExponential(1)}, ${m.training.iterations} iterations)`);
     const e = m.evaluation;

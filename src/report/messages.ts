@@ -39,8 +39,8 @@ export const MESSAGES: Readonly<Record<string, Message>> = {
     `nothing in the app's code (${f.data.dexFiles} dex ${f.data.dexFiles === 1 ? "file" : "files"}${f.data.partial ? ", some unreadable" : ""}) reaches an API the permission maps tie to it; reflection, native code, dynamically loaded code and APIs outside the maps are not seen`,
   "sensitive-uncommon": rateMessage,
   "service-type-permission": (f) =>
-    `foreground service of type ${(f.data.types as string[]).join("|")} at targetSdk ${f.data.targetSdk} needs ${(f.data.missing as string[]).map((p) => p.replace(/^android\.permission\./, "")).join(" and ")}, which the app does not request: starting it in the foreground fails`,
-  "special-access-component": (f) => `${f.data.kind} bound by ${String(f.data.permission).replace(/^android\.permission\./, "")}: ${f.data.grants}`,
+    `foreground service of type ${(f.data.types as string[]).join("|")} at targetSdk ${f.data.targetSdk} needs ${(f.data.missing as string[]).map(short).join(" and ")}, which the app does not request: starting it in the foreground fails`,
+  "special-access-component": (f) => `${f.data.kind} bound by ${short(String(f.data.permission))}: ${f.data.grants}`,
   "uncommon-for-category": rateMessage,
   "ungrantable-permission": (f) => {
     const ways: string[] = [];
@@ -59,7 +59,7 @@ export const MESSAGES: Readonly<Record<string, Message>> = {
   "weak-guard": (f) =>
     f.data.weakness === "read-only-guard"
       ? `provider guarded only for reading (android:readPermission ${f.data.permission}): any app can insert, update or delete through it; set android:writePermission or android:permission`
-      : `${f.data.kind} guarded by ${String(f.data.permission).replace(/^android\.permission\./, "")}, a normal-level platform permission: every app that asks gets it at install, so the guard keeps no one out`,
+      : `${f.data.kind} guarded by ${short(String(f.data.permission))}, a normal-level platform permission: every app that asks gets it at install, so the guard keeps no one out`,
 };
 
 /** " Code: used only by org.example.adnet." — what the app's code shows for a permission finding. */

@@ -2,10 +2,10 @@ import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
-import { detectCorpusFormat, type CorpusRecord } from "../../src/baseline/corpus/index.js";
-import { corpusFile, openCorpusFile as openCorpus, type CorpusFileOptions as CorpusOptions } from "../../src/ops/corpus.js";
-import { splitCsvLine } from "../../src/util/csv.js";
-import { ROOT } from "../helpers/paths.js";
+import { detectCorpusFormat, type CorpusRecord } from "../../../src/baseline/corpus/index.js";
+import { corpusFile, openCorpusFile as openCorpus, type CorpusFileOptions as CorpusOptions } from "../../../src/ops/corpus.js";
+import { splitCsvLine } from "../../../src/util/csv.js";
+import { ROOT } from "../../helpers/paths.js";
 
 const dir = mkdtempSync(join(tmpdir(), "overask-corpus-"));
 let n = 0;

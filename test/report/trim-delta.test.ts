@@ -1,0 +1,38 @@
+import { describe, expect, it } from "vitest";
+import { delta } from "../../src/ops/delta.js";
+import { trim } from "../../src/ops/trim.js";
+import { deltaToJson, deltaToText, safeText, trimToJson, trimToText } from "../../src/report/trim-delta.js";
+import { defaultJudge } from "../helpers/judge.js";
+import { APK_DIR, FIXTURES } from "../helpers/paths.js";
+
+describe("trim in words", () => {
+  const { plan } = trim(defaultJudge, `${FIXTURES}apps/pocketlamp/AndroidManifest.xml`, { judge: { category: "TOOLS" } });
+  const text = trimToText(plan, "AndroidManifest.xml", defaultJudge.file.caution);
+
+  it("numbers each candidate with its reasons, why acting is safe, and the exact change", () => {
+    expect(text).toMatch(/^org\.example\.pocketlamp: \d+ permissions worth removing or limiting/);
+    expect(text).toMatch(/\n {2}1\. [A-Z_]+/);
+    expect(text).toMatch(/\n {5}safe because /);
+    expect(text).toMatch(/\n {5}delete line \d+:\n {7}<uses-permission android:name="/);
+  });
+
+  it("words the safety reasons and the check reasons in JSON too, keeping their codes", () => {
+    const json = JSON.parse(trimToJson(plan, "AndroidManifest.xml"));
+    const c = json.candidates[0];
+    expect(c.safe).toBe(safeText(plan.candidates[0].safe));
+    expect(c.safeBecause).toEqual(plan.candidates[0].safe);
+    expect(c.reasons[0].message).toMatch(/./);
+    expect(c.reasons[0].data).toBeDefined();
+  });
+});
+
+describe("delta in words", () => {
+  const d = delta(defaultJudge, `${APK_DIR}tidewatch.apk`, `${APK_DIR}tidewatch-next.apk`, {});
+
+  it("lists what the update adds, with each newly uncommon permission's message", () => {
+    const text = deltaToText(d, ["old.apk", "new.apk"], defaultJudge.file.caution);
+    expect(text).toMatch(/ACCESS_BACKGROUND_LOCATION/);
+    const json = JSON.parse(deltaToJson(d, ["old.apk", "new.apk"], defaultJudge.file.caution));
+    for (const f of json.newlyUncommon) expect(f.message).toMatch(/ of \d+ /);
+  });
+});
