@@ -43,7 +43,7 @@ export function corpusEra(counts: CountTable, years?: string): BaselineEra {
 export type FrequencyBasis =
   | { kind: "own"; basis: string }
   | { kind: "predecessor"; basis: string; judgement: Extract<EraJudgement, { kind: "predecessor" }> }
-  | { kind: "made-explicit" | "no-evidence"; judgement: Exclude<EraJudgement, { kind: "own" | "predecessor" }> };
+  | { kind: "made-explicit" | "alongside" | "no-evidence"; judgement: Exclude<EraJudgement, { kind: "own" | "predecessor" }> };
 
 /**
  * The era rule for one permission against a baseline: its own rate when the corpus could have seen it;

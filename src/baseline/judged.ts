@@ -15,6 +15,7 @@ export type FrequencyJudgement =
   | { kind: "rate"; rate: PermissionRate; judgedBy?: { permission: string; addedIn: number; lineage: Lineage } }
   | { kind: "own-permission" }
   | { kind: "made-explicit"; addedIn: number; lineage: Lineage }
+  | { kind: "required-alongside"; addedIn: number; lineage: Lineage }
   | { kind: "no-evidence"; addedIn: number };
 
 /** What the rule needs to know of an app: its package and the permissions it declares itself. */
@@ -43,6 +44,7 @@ export function judgeFrequency(
   const basis = frequencyBasis(baseline, category, permission);
   if (basis.kind === "own") return { kind: "rate", rate: rate(permission) };
   if (basis.kind === "predecessor") return { kind: "rate", rate: rate(basis.basis), judgedBy: { permission: basis.basis, addedIn: basis.judgement.addedIn, lineage: basis.judgement.lineage } };
+  if (basis.judgement.kind === "alongside") return { kind: "required-alongside", addedIn: basis.judgement.addedIn, lineage: basis.judgement.lineage };
   return basis.judgement.kind === "made-explicit"
     ? { kind: "made-explicit", addedIn: basis.judgement.addedIn, lineage: basis.judgement.lineage }
     : { kind: "no-evidence", addedIn: basis.judgement.addedIn };

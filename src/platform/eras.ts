@@ -5,6 +5,7 @@
  */
 import { ADDED_IN_HEADER, ADDED_IN_ROWS } from "./generated/permission-added-in.js";
 import { LINEAGE_HEADER, LINEAGE_ROWS } from "./generated/permission-lineage.js";
+import { platformPermissions } from "./permissions.js";
 import { rowsOf } from "./tables.js";
 
 export interface AddedIn {
@@ -15,7 +16,14 @@ export interface AddedIn {
   source: string;
 }
 
-export type LineageKind = "split" | "renamed" | "replacement" | "made-explicit";
+/**
+ * - `split`, `renamed`, `replacement`: it took over from its predecessors, so their rates speak for it;
+ * - `alongside`: it is needed together with its predecessors, not instead (a foreground-service type's own
+ *   permission beside FOREGROUND_SERVICE; partial photo access beside READ_MEDIA_IMAGES): their rates say
+ *   nothing about it;
+ * - `made-explicit`: it made explicit what every app could do before.
+ */
+export type LineageKind = "split" | "renamed" | "replacement" | "alongside" | "made-explicit";
 
 export interface Lineage {
   permission: string;
@@ -31,9 +39,22 @@ export interface Lineage {
 let added: Map<string, AddedIn> | undefined;
 let lineage: Map<string, Lineage> | undefined;
 
-/** When the platform added `permission` (platform permissions apps can request; undefined otherwise). */
+/**
+ * When the platform added `permission`: the added-in table's row, else, for a permission the API-34
+ * framework table lacks, the level the later tables first show it at (an upper bound); undefined otherwise.
+ */
 export function addedIn(permission: string): AddedIn | undefined {
-  added ??= new Map(rowsOf(ADDED_IN_HEADER, ADDED_IN_ROWS).map((r) => [r.name, { api: Number(r.added_in), basis: r.basis as AddedIn["basis"], source: r.source }]));
+  if (!added) {
+    added = new Map(rowsOf(ADDED_IN_HEADER, ADDED_IN_ROWS).map((r) => [r.name, { api: Number(r.added_in), basis: r.basis as AddedIn["basis"], source: r.source }]));
+    for (const p of platformPermissions().values()) {
+      if (p.tableAddedIn === undefined || added.has(p.name)) continue;
+      const source =
+        p.definedBy === "health-connect"
+          ? "health-connect-permissions.tsv: the Health Connect module's releases (a platform module from Android 14, developer.android.com/health-and-fitness/health-connect/get-started)"
+          : `changes-api34-35-36.tsv: added ${p.tableAddedIn - 1}->${p.tableAddedIn} in the framework manifest`;
+      added.set(p.name, { api: p.tableAddedIn, basis: "upper-bound", source });
+    }
+  }
   return added.get(permission);
 }
 
@@ -68,6 +89,8 @@ export type EraJudgement =
   | { kind: "predecessor"; predecessors: string[]; addedIn: number; lineage: Lineage }
   /** It made explicit what every app could do before: how often apps request it says nothing yet. */
   | { kind: "made-explicit"; addedIn: number; lineage: Lineage }
+  /** It is needed alongside older permissions, not instead of them: their rates say nothing about it. */
+  | { kind: "alongside"; addedIn: number; lineage: Lineage }
   /** Newer than the era, with nothing before it: no frequency evidence. */
   | { kind: "no-evidence"; addedIn: number };
 
@@ -81,6 +104,7 @@ export function judgeByEra(permission: string, era: number | undefined): EraJudg
   if (era === undefined || !a || a.api <= era) return { kind: "own" };
   const l = lineageOf(permission);
   if (l?.kind === "made-explicit") return { kind: "made-explicit", addedIn: a.api, lineage: l };
+  if (l?.kind === "alongside") return { kind: "alongside", addedIn: a.api, lineage: l };
   if (l && l.predecessors.length) {
     const within = new Set<string>();
     const seen = new Set<string>([permission]);

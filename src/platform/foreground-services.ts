@@ -1,41 +1,37 @@
 /**
- * Foreground-service types: the values of `android:foregroundServiceType` and, from targetSdk 34, the
- * permission each type requires (FOREGROUND_SERVICE_<TYPE>).
- *
- * Flag values: dataSync 0x1, mediaPlayback 0x2, phoneCall 0x4, location 0x8, connectedDevice 0x10 and
- * mediaProjection 0x20 are the six flags the API 29 framework defines (`aapt dump --values resources` of
- * Debian's framework-res.apk lists them for attr 0x01010599); their names and the later values are from
- * memory of the platform's attrs_manifest.xml. Type → permission, and the target-34 rule: from memory of
- * developer.android.com/about/versions/14/changes/fgs-types-required.
+ * Foreground-service types: the values of `android:foregroundServiceType`, the permission each type needs
+ * from targetSdk 34 (FOREGROUND_SERVICE_<TYPE>, beside FOREGROUND_SERVICE), and the runtime permissions a
+ * service of the type must hold before it starts (any one of them). A row of
+ * src/platform/data/foreground-service-types.tsv each, with its source: the platform documentation's page
+ * of service types (developer.android.com/develop/background-work/services/fgs/service-types), the
+ * framework's attribute values (`aapt dump --values resources` of Debian's framework-res.apk, API 29, for
+ * the six oldest flags), or "from memory".
  */
+import { SERVICE_TYPES_HEADER, SERVICE_TYPES_ROWS } from "./generated/foreground-service-types.js";
+import { rowsOf } from "./tables.js";
 
 export interface ServiceType {
   name: string;
   flag: number;
   /** The permission a service of this type needs from targetSdk 34 (shortService needs none). */
   permission?: string;
+  /** Runtime permissions of which the app must hold one before it starts such a service (none: no prerequisite). */
+  prerequisites: string[];
+  /** The API level that added the type. */
+  addedIn: number;
+  source: string;
 }
 
-const P = (s: string) => `android.permission.FOREGROUND_SERVICE_${s}`;
+export const SERVICE_TYPES: readonly ServiceType[] = rowsOf(SERVICE_TYPES_HEADER, SERVICE_TYPES_ROWS).map((r) => ({
+  name: r.type,
+  flag: Number(r.flag),
+  ...(r.permission ? { permission: r.permission } : {}),
+  prerequisites: r.prerequisites_any ? r.prerequisites_any.split("|") : [],
+  addedIn: Number(r.added_in),
+  source: r.source,
+}));
 
-export const SERVICE_TYPES: readonly ServiceType[] = [
-  { name: "dataSync", flag: 0x1, permission: P("DATA_SYNC") },
-  { name: "mediaPlayback", flag: 0x2, permission: P("MEDIA_PLAYBACK") },
-  { name: "phoneCall", flag: 0x4, permission: P("PHONE_CALL") },
-  { name: "location", flag: 0x8, permission: P("LOCATION") },
-  { name: "connectedDevice", flag: 0x10, permission: P("CONNECTED_DEVICE") },
-  { name: "mediaProjection", flag: 0x20, permission: P("MEDIA_PROJECTION") },
-  { name: "camera", flag: 0x40, permission: P("CAMERA") },
-  { name: "microphone", flag: 0x80, permission: P("MICROPHONE") },
-  { name: "health", flag: 0x100, permission: P("HEALTH") },
-  { name: "remoteMessaging", flag: 0x200, permission: P("REMOTE_MESSAGING") },
-  { name: "systemExempted", flag: 0x400, permission: P("SYSTEM_EXEMPTED") },
-  { name: "shortService", flag: 0x800 },
-  { name: "fileManagement", flag: 0x1000, permission: P("FILE_MANAGEMENT") },
-  { name: "specialUse", flag: 0x40000000, permission: P("SPECIAL_USE") },
-];
-
-/** From this targetSdk a foreground service needs the permission of each of its types. */
+/** From this targetSdk a foreground service needs the permission of each of its types, and their prerequisites. */
 export const SERVICE_TYPE_PERMISSIONS_FROM_SDK = 34;
 
 /** Type names of a flags value or of the text form (`"camera|location"`); unknown bits stay as hex. */

@@ -1,12 +1,17 @@
 /**
- * The platform's own permission definitions (Android 14 / API 34, from the framework manifest; see
- * src/platform/data/SOURCES.md): protection level, flags and restrictions for each platform permission.
- * The table is compiled into the code at build time (scripts/gen.mjs), so nothing is read from disk.
+ * The platform's own permission definitions: the framework manifest's as of Android 16 (API 36), with the
+ * feature flag an entry is defined under, and the Health Connect module's (a platform module since Android
+ * 14); see src/platform/data/SOURCES.md and SOURCES-api35-36-health.md. Protection level, flags and
+ * restrictions for each permission. The table is compiled into the code at build time (scripts/gen.mjs),
+ * so nothing is read from disk.
  */
 import { PERMISSION_TABLE_HEADER, PERMISSION_TABLE_ROWS } from "./generated/permission-table.js";
 import { protectionFromText, type BaseLevel } from "./protection.js";
 
-export const PLATFORM_TABLE_VERSION = "android-34 (framework core/res/AndroidManifest.xml; see src/platform/data/SOURCES.md)";
+export const PLATFORM_TABLE_VERSION = "android-36 (framework core/res/AndroidManifest.xml, with feature flags) + Health Connect module; see src/platform/data/SOURCES*.md";
+
+/** The newest platform level the table speaks for, as messages name it. */
+export const PLATFORM_TABLE_API = 36;
 
 export interface PlatformPermission {
   name: string;
@@ -20,6 +25,12 @@ export interface PlatformPermission {
   backgroundPermission?: string;
   /** `deprecated`, `removed` or `no-longer-supported` from the platform's documentation comment. */
   docNote?: string;
+  /** The aconfig flag the platform defines it under (`!flag`: only while the flag is off). */
+  featureFlag?: string;
+  /** Who defines it: the framework manifest, or the Health Connect module. */
+  definedBy: "framework" | "health-connect";
+  /** For one the API-34 table lacks: the level the later tables show it at (35 or 36; Health Connect 34–36). */
+  tableAddedIn?: number;
 }
 
 
@@ -46,6 +57,9 @@ function tableFromRows(header: readonly string[], rows: readonly (readonly strin
     removed: col("removed"),
     background: col("background_permission"),
     note: col("doc_note"),
+    flag: header.indexOf("feature_flag"),
+    by: header.indexOf("defined_by"),
+    added: header.indexOf("table_added_in"),
   };
   const out = new Map<string, PlatformPermission>();
   for (const f of rows) {
@@ -58,7 +72,10 @@ function tableFromRows(header: readonly string[], rows: readonly (readonly strin
       hardRestricted: f[c.hard] === "yes",
       softRestricted: f[c.soft] === "yes",
       removed: f[c.removed] === "yes",
+      definedBy: f[c.by] === "health-connect" ? "health-connect" : "framework",
     };
+    if (c.flag >= 0 && f[c.flag]) p.featureFlag = f[c.flag];
+    if (c.added >= 0 && f[c.added]) p.tableAddedIn = Number(f[c.added]);
     if (f[c.background]) p.backgroundPermission = f[c.background];
     if (f[c.note]) p.docNote = f[c.note];
     out.set(p.name, p);

@@ -72,6 +72,7 @@ function judgementNote(x: RateView): string {
   const j = x.judgement;
   if (j.kind === "rate") return j.judgedBy ? `  judged by ${short(j.judgedBy.permission)}` : "";
   if (j.kind === "made-explicit") return `  not judged by frequency: made an older behaviour explicit in API ${j.addedIn}`;
+  if (j.kind === "required-alongside") return `  not judged by frequency: needed alongside ${j.lineage.predecessors.map(short).join(" or ")} since API ${j.addedIn}, not instead`;
   if (j.kind === "no-evidence") return `  not judged by frequency: added in API ${j.addedIn}, after the baseline's era`;
   return "";
 }

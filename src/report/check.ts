@@ -6,7 +6,7 @@ import type { CodeEvidence } from "../score/code-evidence.js";
 import type { CheckResult, NotJudged } from "../score/judge.js";
 import type { Policy } from "../score/policy/policy.js";
 import type { CategoryChoice } from "../score/category.js";
-import { codeLookup, wordFinding, type CodeLookup } from "./messages.js";
+import { codeLookup, neededText, wordFinding, type CodeLookup } from "./messages.js";
 import type { RiskEstimate } from "../score/risk.js";
 import type { Finding } from "../score/types.js";
 import { TOOL_VERSION } from "../version.js";
@@ -44,6 +44,7 @@ export function alsoMessages(f: Finding): { checkId: string; level: string; mess
 export function notJudgedText(n: NotJudged, era: number | undefined): string {
   if (n.why === "own-permission") return "declared by this app";
   if (n.why === "made-explicit") return `not measured: added in API ${n.addedIn} to make explicit what every app could do before${n.note ? ` (${n.note})` : ""}, so older apps could not request it`;
+  if (n.why === "required-alongside") return `not measured: needed alongside ${(n.alongside ?? []).map(short).join(" or ")} (added in API ${n.addedIn}${n.note ? `: ${n.note}` : ""}), not instead of it, so how often apps request that says nothing about this one`;
   return `newer than this baseline (added in API ${n.addedIn}; baseline era API ${era}): no frequency evidence`;
 }
 
@@ -124,6 +125,13 @@ export function checkToText(runs: CheckRun[], info: CheckRunInfo, s: Style = PLA
     if (findings.length === 0) out.push("  none");
     const code = codeLookup(run.result.code);
     for (const f of findings) out.push(...findingLines(f, messageOf(f, code), alsoMessages(f), s));
+    if (run.result.needed.length) {
+      out.push("", s.bold(`Rare for the category, but needed by the manifest (${run.result.needed.length})`));
+      for (const n of run.result.needed) {
+        out.push(`  ${short(n.permission)}`);
+        for (const r of n.reasons) out.push(...wrap(`    ${neededText(r)}`, 80, 6).map((l) => s.dim(l)));
+      }
+    }
     if (notJudged.length) {
       out.push("", s.bold(`Not judged by frequency (${notJudged.length})`));
       for (const n of notJudged) {
@@ -151,6 +159,7 @@ export function checkToJson(runs: CheckRun[], info: CheckRunInfo): string {
       findings: findings.map((f) => ({ ...f, message: messageOf(f, codeLookup(run.result!.code)), ...(f.also ? { also: alsoMessages(f).map((a, i) => ({ ...f.also![i], message: a.message })) } : {}) })),
       ...(run.result.code ? { code: run.result.code } : {}),
       notJudged: run.result.notJudged.map((n) => ({ ...n, message: notJudgedText(n, run.result!.era?.api) })),
+      needed: run.result.needed.map((n) => ({ ...n, message: n.reasons.map(neededText).join("; ") })),
       risk: risk ?? null,
     };
   });

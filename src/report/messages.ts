@@ -5,6 +5,7 @@
 import type { CodeEvidence, PermissionEvidence } from "../score/code-evidence.js";
 import { codeStatusText } from "../score/code-evidence.js";
 import { checkIdsTagged } from "../score/registry.js";
+import type { NeedReason } from "../score/needed.js";
 import type { Finding } from "../score/types.js";
 import { pct, short } from "./format.js";
 
@@ -38,8 +39,14 @@ export const MESSAGES: Readonly<Record<string, Message>> = {
   "not-seen-in-code": (f) =>
     `nothing in the app's code (${f.data.dexFiles} dex ${f.data.dexFiles === 1 ? "file" : "files"}${f.data.partial ? ", some unreadable" : ""}) reaches an API the permission maps tie to it; reflection, native code, dynamically loaded code and APIs outside the maps are not seen`,
   "sensitive-uncommon": rateMessage,
-  "service-type-permission": (f) =>
-    `foreground service of type ${(f.data.types as string[]).join("|")} at targetSdk ${f.data.targetSdk} needs ${(f.data.missing as string[]).map(short).join(" and ")}, which the app does not request: starting it in the foreground fails`,
+  "service-type-permission": (f) => {
+    const needs = (f.data.missing as string[]).map(short);
+    for (const m of (f.data.missingOneOf as string[] | undefined) ?? []) {
+      const [type, any] = m.split(":");
+      needs.push(`one of ${any.split("|").map(short).join(", ")} (for ${type})`);
+    }
+    return `foreground service of type ${(f.data.types as string[]).join("|")} at targetSdk ${f.data.targetSdk} needs ${needs.join(" and ")}, which the app does not request: starting it in the foreground fails`;
+  },
   "special-access-component": (f) => `${f.data.kind} bound by ${short(String(f.data.permission))}: ${f.data.grants}`,
   "uncommon-for-category": rateMessage,
   "ungrantable-permission": (f) => {
@@ -92,4 +99,28 @@ export function wordFinding(f: Pick<Finding, "checkId" | "subject" | "data">, co
   if (!message) return f.checkId;
   const text = message(f);
   return RATE_CHECKS.has(f.checkId) ? `${text}${codeSuffix(code(f.subject))}` : text;
+}
+
+/** Why the manifest shows a permission is needed (score/needed.ts), or why trim keeps it, in words. */
+export function neededText(r: NeedReason | { kind: "notifications" }): string {
+  switch (r.kind) {
+    case "own-permission":
+      return "the app's own permission";
+    case "guards-component":
+      return `guards the app's own ${r.componentKind} ${r.component}`;
+    case "foreground-service":
+      return `needed by the foreground service ${r.service} (${r.types.join("|")})`;
+    case "service-type":
+      return `needed by the ${r.type} foreground service ${r.service}`;
+    case "service-type-prerequisite":
+      return r.anyOf.length > 1
+        ? `the ${r.type} foreground service ${r.service} needs one of ${r.anyOf.map(short).join(", ")} before it starts`
+        : `the ${r.type} foreground service ${r.service} needs it before it starts`;
+    case "self-managed-calls":
+      return `needed by the self-managed calling service ${r.service}`;
+    case "health-connect":
+      return `a Health Connect permission, with the rationale the app shows for it in ${r.activity}`;
+    case "notifications":
+      return "removing it silences every notification the app posts, and no manifest shows an app posts none";
+  }
 }

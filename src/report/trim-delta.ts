@@ -5,7 +5,7 @@ import { snippetFor, type TrimPlan } from "../score/trim/plan.js";
 import { TOOLS_NS } from "../extract/xml-tree.js";
 import { TOOL_VERSION } from "../version.js";
 import { messageOf } from "./check.js";
-import { codeLookup, wordFinding } from "./messages.js";
+import { codeLookup, neededText, wordFinding } from "./messages.js";
 import type { SafeReason } from "../score/trim/plan.js";
 import { findingLines, verdict } from "./finding-text.js";
 import { PLAIN, wrap, type Style } from "./style.js";
@@ -64,8 +64,8 @@ export function trimToText(plan: TrimPlan, file: string, caution: string | undef
     out.push(`       ${snippetFor(c)}`);
   });
   if (plan.kept.length) {
-    out.push("", s.bold("Flagged, but kept: the manifest shows the app needs them"));
-    for (const k of plan.kept) out.push(...wrap(`  ${short(k.permission)}: ${k.why}`, 80, 4));
+    out.push("", s.bold("Flagged, but kept"));
+    for (const k of plan.kept) out.push(...wrap(`  ${short(k.permission)}: ${k.reasons.map(neededText).join("; ")}`, 80, 4));
   }
   if (plan.typos.length) {
     out.push("", s.bold("Fix, do not remove"));
@@ -76,7 +76,7 @@ export function trimToText(plan: TrimPlan, file: string, caution: string | undef
 }
 
 export function trimToJson(plan: TrimPlan, file: string): string {
-  return `${JSON.stringify({ tool: "overask", version: TOOL_VERSION, schemaVersion: 1, file, ...plan, candidates: plan.candidates.map((c) => ({ ...c, reasons: c.reasons.map((r) => ({ ...r, message: reasonText(c.permission, r) })), safe: safeText(c.safe), safeBecause: c.safe, snippet: snippetFor(c) })) }, null, 2)}\n`;
+  return `${JSON.stringify({ tool: "overask", version: TOOL_VERSION, schemaVersion: 1, file, ...plan, kept: plan.kept.map((k) => ({ ...k, why: k.reasons.map(neededText).join("; ") })), candidates: plan.candidates.map((c) => ({ ...c, reasons: c.reasons.map((r) => ({ ...r, message: reasonText(c.permission, r) })), safe: safeText(c.safe), safeBecause: c.safe, snippet: snippetFor(c) })) }, null, 2)}\n`;
 }
 
 export function deltaToText(d: Delta, files: [string, string], caution: string | undefined, s: Style = PLAIN): string {

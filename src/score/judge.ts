@@ -13,17 +13,21 @@ import { chooseCategory, type CategoryChoice } from "./category.js";
 import { isOwnPermission, judgeFrequency } from "../baseline/judged.js";
 import { evaluatePolicy, type Policy } from "./policy/policy.js";
 import { CHECKS, checkIdsTagged } from "./registry.js";
+import { neededByManifest, type NeedReason } from "./needed.js";
+import { uncommonJudgement } from "./uncommon.js";
 import { CACHE_LIMIT, RiskScorer, type RiskEstimate } from "./risk.js";
 import { levelRank, type Finding, type Level } from "./types.js";
 
 /** A requested permission that frequency does not judge, and why. */
 export interface NotJudged {
   permission: string;
-  why: "own-permission" | "made-explicit" | "no-evidence";
+  why: "own-permission" | "made-explicit" | "required-alongside" | "no-evidence";
   /** The API level that added it (made-explicit, no-evidence). */
   addedIn?: number;
-  /** What the lineage table says it made explicit. */
+  /** What the lineage table says of it. */
   note?: string;
+  /** The permissions it is needed alongside (required-alongside). */
+  alongside?: string[];
 }
 
 export interface CheckResult {
@@ -32,6 +36,8 @@ export interface CheckResult {
   findings: Finding[];
   /** Requested permissions frequency does not judge: the app's own, and those newer than the baseline's era. */
   notJudged: NotJudged[];
+  /** Permissions frequency alone would call uncommon that the manifest shows the app needs (score/needed.ts). */
+  needed: { permission: string; reasons: NeedReason[] }[];
   /** The baseline's era, and whether the app targets a newer platform than the corpus could speak for. */
   era?: { api: number; targetNewer: boolean };
   risk?: RiskEstimate;
@@ -82,7 +88,8 @@ export class Judge {
     const rateCategory = category.category ?? category.requested;
     const rate = (p: string) => this.rate(rateCategory, p);
     const code = options.dexes?.length ? codeEvidence(manifest, options.dexes) : undefined;
-    const ctx = { manifest, baseline: this.baseline, category, rate, frequency: (p: string) => judgeFrequency(manifest, this.baseline, category.category, p, rate), ...(code ? { code } : {}) };
+    const needed = neededByManifest(manifest);
+    const ctx = { manifest, baseline: this.baseline, category, rate, needed, frequency: (p: string) => judgeFrequency(manifest, this.baseline, category.category, p, rate), ...(code ? { code } : {}) };
     const raw: Finding[] = [];
     for (const check of CHECKS) {
       const level = options.levels?.get(check.meta.id) ?? check.meta.defaultLevel;
@@ -97,9 +104,12 @@ export class Judge {
       const j = ctx.frequency(p);
       if (j.kind === "own-permission") notJudged.push({ permission: p, why: "own-permission" });
       else if (j.kind === "made-explicit") notJudged.push({ permission: p, why: "made-explicit", addedIn: j.addedIn, note: j.lineage.note });
+      else if (j.kind === "required-alongside") notJudged.push({ permission: p, why: "required-alongside", addedIn: j.addedIn, note: j.lineage.note, alongside: j.lineage.predecessors });
       else if (j.kind === "no-evidence") notJudged.push({ permission: p, why: "no-evidence", addedIn: j.addedIn });
     }
-    const result: CheckResult = { manifest, category, findings, notJudged, ...(code ? { code } : {}) };
+    // Where frequency alone would have called a permission uncommon, the manifest's reason stands instead.
+    const neededInstead = [...needed].filter(([p]) => !isOwnPermission(manifest, p) && uncommonJudgement(manifest, this.baseline, category.category, p, rate)).map(([permission, reasons]) => ({ permission, reasons }));
+    const result: CheckResult = { manifest, category, findings, notJudged, needed: neededInstead, ...(code ? { code } : {}) };
     if (this.baseline.era !== undefined) result.era = { api: this.baseline.era, targetNewer: (manifest.targetSdk ?? 0) > this.baseline.era };
     // The app's own permissions say nothing about it against other apps: the risk leaves them out too.
     if (this.scorer) result.risk = this.scorer.estimate(category.category, requested.filter((p) => !isOwnPermission(manifest, p)), options.prevalence);

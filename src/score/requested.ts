@@ -21,7 +21,7 @@ export interface RequestedRate {
   /** The older permission whose rate stands in for it (era rule). */
   judgedBy?: string;
   /** Why frequency does not judge it. */
-  notJudged?: "own-permission" | "made-explicit" | "no-evidence";
+  notJudged?: "own-permission" | "made-explicit" | "required-alongside" | "no-evidence";
 }
 
 export function requestedRates(judge: Judge, result: CheckResult): RequestedRate[] {

@@ -7,6 +7,7 @@ import type { Manifest, SourceLocation } from "../extract/manifest/model.js";
 import type { CategoryChoice } from "./category.js";
 import type { CodeEvidence } from "./code-evidence.js";
 import type { FrequencyJudgement } from "../baseline/judged.js";
+import type { NeedReason } from "./needed.js";
 
 /** SARIF's levels, most severe first. */
 export const LEVELS = ["error", "warning", "note"] as const;
@@ -47,6 +48,8 @@ export interface CheckContext {
   frequency(permission: string): FrequencyJudgement;
   /** Code evidence, when the app's dex code was read (absent for bare manifests and with --no-code). */
   code?: CodeEvidence;
+  /** The requested permissions the manifest shows the app needs, with why (score/needed.ts). */
+  needed: ReadonlyMap<string, NeedReason[]>;
 }
 
 /** Data a finding carries; each check documents its own keys. */

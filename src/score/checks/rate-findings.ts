@@ -13,7 +13,8 @@ export function rateFindings(ctx: CheckContext, select: (permission: string) => 
   const out: Omit<Finding, "level" | "checkId">[] = [];
   const first = new Map(ctx.manifest.usesPermissions.map((p) => [p.name, p] as const).reverse());
   for (const name of requestedPermissionNames(ctx.manifest)) {
-    if (!select(name)) continue;
+    // A permission the manifest shows the app needs is not judged by how common it is (score/needed.ts).
+    if (!select(name) || ctx.needed.has(name)) continue;
     const j = uncommonJudgement(ctx.manifest, ctx.baseline, ctx.category.category, name, ctx.rate);
     if (!j) continue;
     const r = j.rate;

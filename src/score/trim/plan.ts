@@ -5,9 +5,8 @@
 import { requestedPermissionNames, type Manifest, type RequestedPermission } from "../../extract/manifest/model.js";
 import type { CheckResult } from "../judge.js";
 import type { PermissionOrigin } from "../merge-report.js";
-import { serviceType } from "../../platform/foreground-services.js";
-import { isOwnPermission } from "../../baseline/judged.js";
 import { checkIdsTagged } from "../registry.js";
+import { neededByManifest, type NeedReason } from "../needed.js";
 import { levelRank, type FindingData, type Level } from "../types.js";
 
 const TRIM_CHECKS = checkIdsTagged("trim");
@@ -58,7 +57,7 @@ export interface TrimPlan {
   atypicality?: { percentile: number; category?: string };
   candidates: TrimCandidate[];
   /** Flagged permissions trim leaves alone because the manifest shows the app needs them. */
-  kept: { permission: string; why: string }[];
+  kept: { permission: string; reasons: KeptReason[] }[];
   /** Likely typos: not trimmed, but to be fixed. */
   typos: { permission: string; nearest: string }[];
 }
@@ -76,8 +75,10 @@ export function planTrim(
   const byPermission = new Map<string, TrimCandidate>();
   const typos: TrimPlan["typos"] = [];
   const source = options.source ?? (m.input.kind === "plain-xml" ? m : undefined);
-  const needed = neededByManifest(m);
-  const kept = new Map<string, string>();
+  const needed = keptReasons(m);
+  const kept = new Map<string, KeptReason[]>();
+  // Flagged as uncommon but for the manifest's reason (check's `needed`): kept, and said so.
+  for (const n of result.needed) kept.set(n.permission, n.reasons);
   // Folded findings (score/judge.ts) carry other checks' reasons in `also`: each is a reason of its own here.
   const all = result.findings.flatMap((f) => [f, ...(f.also ?? []).map((a) => ({ ...f, checkId: a.checkId, level: a.level, data: a.data }))]);
   for (const f of all) {
@@ -129,7 +130,7 @@ export function planTrim(
       levelRank(b.reasons[0].level) - levelRank(a.reasons[0].level) ||
       a.permission.localeCompare(b.permission),
   );
-  const plan: TrimPlan = { package: m.package, candidates, kept: [...kept].map(([permission, why]) => ({ permission, why })).sort((a, b) => a.permission.localeCompare(b.permission)), typos };
+  const plan: TrimPlan = { package: m.package, candidates, kept: [...kept].map(([permission, reasons]) => ({ permission, reasons })).sort((a, b) => a.permission.localeCompare(b.permission)), typos };
   if (result.risk) {
     plan.risk = result.risk.probability;
     plan.baseRate = result.risk.baseRate;
@@ -157,25 +158,18 @@ export function snippetFor(c: TrimCandidate): string {
 
 const NOTIFICATIONS = "android.permission.POST_NOTIFICATIONS";
 
+/** Why trim leaves a flagged permission alone: the manifest shows the app needs it, or removing it silences the app. */
+export type KeptReason = NeedReason | { kind: "notifications" };
+
 /**
- * Permissions the manifest itself shows the app needs, with why: the app's own, the foreground-service
- * permissions its services' types require, any permission guarding one of its components, and
- * POST_NOTIFICATIONS (nothing in a manifest shows that an app never notifies).
+ * What trim keeps, with why: every permission the manifest shows the app needs (score/needed.ts), and
+ * POST_NOTIFICATIONS, whose removal silences every notification the app posts (no manifest can show that
+ * an app posts none).
  */
-export function neededByManifest(m: Manifest): Map<string, string> {
-  const needed = new Map<string, string>();
-  for (const p of requestedPermissionNames(m)) if (isOwnPermission(m, p)) needed.set(p, "the app's own permission");
-  for (const c of m.components) {
-    for (const g of [c.permission, c.readPermission, c.writePermission]) if (g) needed.set(g, `guards the app's own ${c.kind} ${c.name}`);
-    if (c.kind !== "service" || !c.foregroundServiceType?.length) continue;
-    needed.set("android.permission.FOREGROUND_SERVICE", `needed by the foreground service ${c.name}`);
-    for (const t of c.foregroundServiceType) {
-      const p = serviceType(t)?.permission;
-      if (p) needed.set(p, `needed by the ${t} foreground service ${c.name}`);
-    }
-  }
-  if (!needed.has(NOTIFICATIONS)) needed.set(NOTIFICATIONS, "nothing in the manifest shows the app never posts notifications");
-  return needed;
+function keptReasons(m: Manifest): Map<string, KeptReason[]> {
+  const kept = new Map<string, KeptReason[]>([...neededByManifest(m)].map(([p, r]) => [p, [...r]]));
+  if (!kept.has(NOTIFICATIONS)) kept.set(NOTIFICATIONS, [{ kind: "notifications" }]);
+  return kept;
 }
 
 /** Why acting on a candidate is safe, from its reasons. */

@@ -71,22 +71,27 @@ describe("parseMergeReport", () => {
 });
 
 describe("trim never removes what the manifest shows the app needs", () => {
-  it("keeps foreground-service permissions a service type needs, guards of its own components, and notifications", async () => {
-    const { neededByManifest } = await import("../../../src/score/trim/plan.js");
-    const { readManifestBytes } = await import("../../../src/extract/index.js");
+  it("keeps what the manifest shows the app needs, and says why in words (score/needed.ts decides)", async () => {
+    const { planTrim } = await import("../../../src/score/trim/plan.js");
+    const { neededText } = await import("../../../src/report/messages.js");
+    const { defaultJudge, judgeText } = await import("../../helpers/judge.js");
+    // A step counter (invented) with a health service: BODY_SENSORS is rare among TOOLS apps (the bundled
+    // counts), but the health service needs it (or another sensor permission) before it starts.
     const text = `<manifest xmlns:android="http://schemas.android.com/apk/res/android" package="org.example.keep">
   <uses-sdk android:minSdkVersion="26" android:targetSdkVersion="34" />
-  <uses-permission android:name="android.permission.FOREGROUND_SERVICE_LOCATION" />
-  <uses-permission android:name="android.permission.BIND_JOB_SERVICE" />
+  <uses-permission android:name="android.permission.BODY_SENSORS" />
+  <uses-permission android:name="android.permission.FOREGROUND_SERVICE" />
+  <uses-permission android:name="android.permission.FOREGROUND_SERVICE_HEALTH" />
   <application>
-    <service android:name=".Track" android:exported="false" android:foregroundServiceType="location" />
-    <service android:name=".Job" android:exported="true" android:permission="android.permission.BIND_JOB_SERVICE" />
+    <service android:name=".Steps" android:exported="false" android:foregroundServiceType="health" />
   </application>
 </manifest>`;
-    const needed = neededByManifest(readManifestBytes(new TextEncoder().encode(text)));
-    expect(needed.get("android.permission.FOREGROUND_SERVICE_LOCATION")).toMatch(/location foreground service org.example.keep.Track/);
-    expect(needed.get("android.permission.BIND_JOB_SERVICE")).toMatch(/guards the app's own service/);
-    expect(needed.get("android.permission.POST_NOTIFICATIONS")).toMatch(/never posts notifications/);
+    const result = judgeText(text, { category: "TOOLS" }, defaultJudge);
+    expect(result.findings.map((f) => f.subject)).not.toContain("android.permission.BODY_SENSORS");
+    const plan = planTrim(result);
+    expect(plan.candidates.map((c) => c.permission)).not.toContain("android.permission.BODY_SENSORS");
+    const kept = plan.kept.find((k) => k.permission === "android.permission.BODY_SENSORS");
+    expect(kept && neededText(kept.reasons[0])).toMatch(/^the health foreground service org\.example\.keep\.Steps needs one of ACTIVITY_RECOGNITION, BODY_SENSORS, /);
   });
 
   it("says why each suggestion is safe", async () => {
