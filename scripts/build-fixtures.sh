@@ -54,6 +54,15 @@ build2 snapshare snapshare
 build2 tidewatch-next tidewatch-next
 build2 beamtorch beamtorch
 
+# Modern apps (targets 34-35, typed foreground services, Health Connect, self-managed calls): aapt2 knows
+# only the service-type flags of the framework it links against (API 29), so each is linked with its types
+# set to dataSync and the real flags are written into the binary manifest afterwards.
+for name in stridecoach lumenedit harbourtalk quillnote quillnote-test snapqr; do
+  sed -E 's/android:foregroundServiceType="[^"]*"/android:foregroundServiceType="dataSync"/' "$APPS/$name/AndroidManifest.xml" > "$WORK/$name-AndroidManifest.xml"
+  aapt2 link -I "$FRAMEWORK" --manifest "$WORK/$name-AndroidManifest.xml" -o "$WORK/$name.apk"
+  node scripts/patch-service-types.mjs "$APPS/$name/AndroidManifest.xml" "$WORK/$name.apk" "$APK/$name.apk"
+done
+
 # App bundle layout and multi-APK archive, from the same demo manifests.
 mkdir -p fixtures/bundle
 aapt2 compile --dir "$APPS/tidewatch/res" -o "$WORK/tw-res.zip"

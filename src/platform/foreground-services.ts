@@ -36,7 +36,12 @@ export const SERVICE_TYPE_PERMISSIONS_FROM_SDK = 34;
 
 /** Type names of a flags value or of the text form (`"camera|location"`); unknown bits stay as hex. */
 export function serviceTypeNames(value: number | string): string[] {
-  if (typeof value === "string") return value.split("|").map((s) => s.trim()).filter(Boolean);
+  if (typeof value === "string") {
+    // In flag order, as the compiled form reads back, so a source and its APK give the same list.
+    const names = value.split("|").map((s) => s.trim()).filter(Boolean);
+    const rank = (n: string) => SERVICE_TYPES.find((t) => t.name === n)?.flag ?? Number.MAX_SAFE_INTEGER;
+    return [...new Set(names)].sort((a, b) => rank(a) - rank(b));
+  }
   const names = SERVICE_TYPES.filter((t) => (value & t.flag) !== 0).map((t) => t.name);
   const unknown = SERVICE_TYPES.reduce((v, t) => v & ~t.flag, value);
   return unknown ? [...names, `0x${(unknown >>> 0).toString(16)}`] : names;

@@ -111,3 +111,28 @@ export function noEffectAt(permission: string, targetSdk: number, maxSdkVersion?
   if (f.unlessMaxSdkAtMost !== undefined && maxSdkVersion !== undefined && maxSdkVersion <= f.unlessMaxSdkAtMost) return undefined;
   return f;
 }
+
+/**
+ * The lowest targetSdk each Android release still installs (an app targeting lower is refused; one already
+ * installed stays). Android 14: 23, from developer.android.com/about/versions/14/behavior-changes-all
+ * ("Minimum installable target API level"); Android 15: 24, from memory of
+ * developer.android.com/about/versions/15/behavior-changes-all.
+ */
+export const MINIMUM_INSTALLABLE_TARGET: readonly { android: string; api: number; minTarget: number; source: string }[] = [
+  { android: "14", api: 34, minTarget: 23, source: "developer.android.com/about/versions/14/behavior-changes-all#minimum-target-api-level" },
+  { android: "15", api: 35, minTarget: 24, source: "from memory: developer.android.com/about/versions/15/behavior-changes-all (minimum installable target API level raised to 24)" },
+];
+
+/** The first Android release that refuses to install an app of this targetSdk, if any does. */
+export function refusedFrom(targetSdk: number): (typeof MINIMUM_INSTALLABLE_TARGET)[number] | undefined {
+  return MINIMUM_INSTALLABLE_TARGET.find((r) => targetSdk < r.minTarget);
+}
+
+/**
+ * Ways to hold a permission that its protection level does not show. ACCESS_MOCK_LOCATION is signature in
+ * the platform table, yet declaring it is what lets the user pick the app as the mock location app in
+ * developer options (an app-op, from Android 6; from memory of the platform's developer-options docs).
+ */
+export const OTHER_GRANT_PATHS: ReadonlyMap<string, { how: "developer-options"; gives: string; source: string }> = new Map([
+  ["android.permission.ACCESS_MOCK_LOCATION", { how: "developer-options", gives: "feeds made-up locations to every app on the device", source: "from memory: developer.android.com/studio/debug/dev-options (Select mock location app), Android 6 and later" }],
+]);

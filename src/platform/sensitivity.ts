@@ -8,6 +8,7 @@ import { SENSITIVITY_HEADER, SENSITIVITY_ROWS } from "./generated/sensitivity.js
 import { platformPermission } from "./permissions.js";
 import type { BaseLevel } from "./protection.js";
 import { rowsOf } from "./tables.js";
+import { OTHER_GRANT_PATHS } from "./sdk-facts.js";
 
 export interface Sensitivity {
   sensitive: boolean;
@@ -42,4 +43,15 @@ export function isDangerous(permission: string): boolean {
  */
 export function storeAppCanHold(level: { base?: BaseLevel; flags?: readonly string[] }): boolean {
   return level.base === "normal" || level.base === "dangerous" || (level.flags?.includes("appop") ?? false);
+}
+
+/**
+ * Special access: a permission the user grants by hand — in settings (an app-op permission whose base
+ * level is not normal: all-files access, drawing over other apps, usage access …; a normal app-op one such
+ * as FOREGROUND_SERVICE_SPECIAL_USE is granted at install) or in developer options (sdk-facts.ts,
+ * OTHER_GRANT_PATHS: the mock location app).
+ */
+export function isSpecialAccess(facts: { base?: string; flags?: readonly string[] }, name: string): boolean {
+  if (OTHER_GRANT_PATHS.has(name)) return true;
+  return (facts.flags?.includes("appop") ?? false) && facts.base !== "normal" && facts.base !== "dangerous";
 }

@@ -117,10 +117,11 @@ export function checkToText(runs: CheckRun[], info: CheckRunInfo, s: Style = PLA
     out.push(...wrap(`  baseline    ${info.baseline}`, 80, 14));
     if (era) out.push(`  era         API ${era.api}: what the baseline's apps could request`);
     if (era?.targetNewer) out.push(...wrap(`  note        the app targets API ${m.targetSdk}, newer than the baseline's era (API ${era.api}): permissions added since are judged by what they replaced, or not at all`, 80, 14));
+    if (run.result.instruments) out.push(...wrap(`  test APK    instruments ${run.result.instruments}: it runs in that app's process with that app's permissions, so it is not judged as a store app (no frequency judgement, no risk)`, 80, 14));
     if (run.result.code) out.push(...wrap(`  code        ${codeSummary(run.result.code)}`, 80, 14).map((l, i) => (i === 0 || !run.result!.code!.problems.length ? l : s.warn(l))));
     out.push("");
     if (risk) out.push(...riskLines(risk, s), "");
-    else out.push(s.dim("Risk  not estimated: the baseline has no risk model"), "");
+    else out.push(s.dim(run.result.instruments ? "Risk  not estimated: a test APK runs with its target's permissions" : "Risk  not estimated: the baseline has no risk model"), "");
     out.push(s.bold(`Findings (${findings.length})`));
     if (findings.length === 0) out.push("  none");
     const code = codeLookup(run.result.code);
@@ -156,6 +157,7 @@ export function checkToJson(runs: CheckRun[], info: CheckRunInfo): string {
       targetSdk: m.targetSdk,
       category,
       ...(run.result.era ? { era: run.result.era } : {}),
+      ...(run.result.instruments ? { instruments: run.result.instruments } : {}),
       findings: findings.map((f) => ({ ...f, message: messageOf(f, codeLookup(run.result!.code)), ...(f.also ? { also: alsoMessages(f).map((a, i) => ({ ...f.also![i], message: a.message })) } : {}) })),
       ...(run.result.code ? { code: run.result.code } : {}),
       notJudged: run.result.notJudged.map((n) => ({ ...n, message: notJudgedText(n, run.result!.era?.api) })),

@@ -8,6 +8,7 @@ import { TOOL_VERSION } from "../version.js";
 import { PLAIN, fit, wrap, type Style } from "./style.js";
 import { PLATFORM_PREFIX, short } from "./format.js";
 import { KIND_INFO } from "../extract/kinds.js";
+import { isSpecialAccess } from "../platform/sensitivity.js";
 
 export interface FactsResult {
   file: string;
@@ -47,7 +48,7 @@ type GroupId = "runtime" | "special" | "install" | "unreachable" | "undefined" |
 
 const PERMISSION_GROUPS: { id: GroupId; title: string }[] = [
   { id: "runtime", title: "Runtime: the user is asked when the app uses it" },
-  { id: "special", title: "Special access: the user grants it in settings" },
+  { id: "special", title: "Special access: the user grants it by hand (settings, developer options)" },
   { id: "install", title: "Install-time: granted without asking" },
   { id: "unreachable", title: "Out of reach: a store app is not granted it" },
   { id: "undefined", title: "Not defined by the platform" },
@@ -59,7 +60,7 @@ function groupOf(m: Manifest, p: RequestedPermission): GroupId {
   if (f.origin === "app" || (m.package !== "" && p.name.startsWith(`${m.package}.`))) return "own";
   if (f.origin !== "platform") return "undefined";
   if (f.base === "dangerous") return "runtime";
-  if (f.flags?.includes("appop")) return "special";
+  if (isSpecialAccess(f, p.name)) return "special";
   if (f.base === "normal") return "install";
   return "unreachable";
 }
@@ -137,7 +138,9 @@ function manifestText(file: string, m: Manifest, s: Style, code?: CodeEvidence):
   for (const g of PERMISSION_GROUPS) {
     const members = perms.filter((p) => groupOf(m, p) === g.id).sort(byName);
     if (!members.length) continue;
-    out.push(`  ${s.bold(g.title)} ${s.dim(`(${members.length})`)}`);
+    // Below targetSdk 23 there is no runtime prompt: dangerous permissions come with the install.
+    const title = g.id === "runtime" && (m.targetSdk ?? m.minSdk ?? 1) < 23 ? "Runtime permissions, granted at install at this targetSdk (no prompt; the user can revoke them later)" : g.title;
+    out.push(`  ${s.bold(title)} ${s.dim(`(${members.length})`)}`);
     for (const p of members) {
       const name = short(p.name);
       const notes = wrap(permissionNotes(p, g.id, code), WIDTH - notesAt, 0);

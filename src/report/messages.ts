@@ -8,6 +8,7 @@ import { checkIdsTagged } from "../score/registry.js";
 import type { NeedReason } from "../score/needed.js";
 import type { Finding } from "../score/types.js";
 import { pct, short } from "./format.js";
+import { PLATFORM_TABLE_API } from "../platform/permissions.js";
 
 type Message = (f: Pick<Finding, "subject" | "data">) => string;
 
@@ -25,6 +26,13 @@ function rateMessage(f: Pick<Finding, "subject" | "data">): string {
 }
 
 export const MESSAGES: Readonly<Record<string, Message>> = {
+  debuggable: () => 'android:debuggable="true": a debugger can attach to the app and run code in it with its permissions and data; release builds leave it off',
+  "target-below-installable": (f) =>
+    `targetSdk ${f.data.targetSdk}: Android ${f.data.android} (API ${f.data.api}) and later refuse to install apps targeting below ${f.data.minTarget}; on older releases its dangerous permissions are granted at install, without the runtime prompt`,
+  "special-access-permission": (f) =>
+    f.data.where === "developer-options"
+      ? `the user can pick the app in developer options (an app-op, not the protection level, decides): it ${f.data.gives ?? "gets special access"}`
+      : `special access the user grants by hand in settings${f.data.gives ? `: it ${f.data.gives}` : ""}; stores ask developers to justify it`,
   "background-location-alone": () => "requested without ACCESS_FINE_LOCATION or ACCESS_COARSE_LOCATION: background location extends one of those and grants nothing on its own",
   "exported-missing": (f) => `${f.data.kind} has an intent filter but no android:exported: at targetSdk ${f.data.targetSdk} the platform refuses to install the app; set android:exported="false" (or "true" if other apps must reach it)`,
   "exported-unguarded": (f) => `${f.data.kind} reachable by any app without a permission (${f.data.reason === "explicit" ? 'android:exported="true"' : "exported by default because of its intent filter, targetSdk below 31"})`,
@@ -51,7 +59,7 @@ export const MESSAGES: Readonly<Record<string, Message>> = {
   "uncommon-for-category": rateMessage,
   "ungrantable-permission": (f) => {
     const ways: string[] = [];
-    if (f.data.role) ways.push("an app the user chooses for a matching system role (default SMS app, dialer, assistant …) receives it");
+    if (f.data.role) ways.push("the platform grants it to the holder of a system role only where that role's definition lists it (not to every default SMS, dialer or assistant app)");
     if (f.data.development) ways.push("the user can grant it over adb (pm grant), as for development");
     const base = `protection level ${f.data.protectionLevel}: only the platform or apps preinstalled and signed for it hold this`;
     return ways.length ? `${base}; otherwise ${ways.join("; and ")}. A store app gets it no other way` : `${base}; a store app's request is ignored`;
@@ -60,7 +68,7 @@ export const MESSAGES: Readonly<Record<string, Message>> = {
     const d = f.data as { nearest: string; distance: number; likelyTypo: boolean };
     return d.likelyTypo
       ? `not a platform permission; likely a typo for ${d.nearest} (${d.distance} edit${d.distance === 1 ? "" : "s"} away), so the app does not get what it meant to ask for`
-      : "not defined by the platform (API 34): removed, misspelt, or from another platform version; it grants nothing";
+      : `not defined by the platform (framework up to API ${PLATFORM_TABLE_API}, Health Connect module): removed, misspelt, or from another platform version; it grants nothing`;
   },
   "weak-custom-permission": (f) => `${f.data.kind} guarded by ${f.data.permission}, which this app declares as ${f.data.level}: any app can ${f.data.level === "normal" ? "get it at install" : "ask the user for it"}; signature would limit it to the developer's own apps`,
   "weak-guard": (f) =>
@@ -118,6 +126,8 @@ export function neededText(r: NeedReason | { kind: "notifications" }): string {
         : `the ${r.type} foreground service ${r.service} needs it before it starts`;
     case "self-managed-calls":
       return `needed by the self-managed calling service ${r.service}`;
+    case "calling-app":
+      return `a calling app (${r.service}) shows incoming calls full screen, which Android 14 keeps for calling and alarm apps`;
     case "health-connect":
       return `a Health Connect permission, with the rationale the app shows for it in ${r.activity}`;
     case "notifications":

@@ -12,7 +12,7 @@ import { requestedPermissionNames, type Manifest } from "../extract/manifest/mod
 import { chooseCategory, type CategoryChoice } from "./category.js";
 import { isOwnPermission, judgeFrequency } from "../baseline/judged.js";
 import { evaluatePolicy, type Policy } from "./policy/policy.js";
-import { CHECKS, checkIdsTagged } from "./registry.js";
+import { CHECKS } from "./registry.js";
 import { neededByManifest, type NeedReason } from "./needed.js";
 import { uncommonJudgement } from "./uncommon.js";
 import { CACHE_LIMIT, RiskScorer, type RiskEstimate } from "./risk.js";
@@ -43,6 +43,12 @@ export interface CheckResult {
   risk?: RiskEstimate;
   /** Code evidence, when the app's dex code was given (`JudgeOptions.dexes`). */
   code?: CodeEvidence;
+  /**
+   * A test APK (`<instrumentation>` naming another app): the package it instruments. It runs in that app's
+   * process with that app's permissions, so it is not judged as a store app: no frequency judgement, no
+   * risk, and nothing "reached in code, not requested".
+   */
+  instruments?: string;
 }
 
 export interface JudgeOptions {
@@ -87,16 +93,18 @@ export class Judge {
     const category = chooseCategory(manifest, this.baseline, { category: options.category, index: options.categoryIndex });
     const rateCategory = category.category ?? category.requested;
     const rate = (p: string) => this.rate(rateCategory, p);
-    const code = options.dexes?.length ? codeEvidence(manifest, options.dexes) : undefined;
+    const instruments = manifest.instrumentation?.find((i) => i.targetPackage !== manifest.package)?.targetPackage;
+    const read = options.dexes?.length ? codeEvidence(manifest, options.dexes) : undefined;
+    const code = read && instruments ? { ...read, unrequested: [] } : read;
     const needed = neededByManifest(manifest);
-    const ctx = { manifest, baseline: this.baseline, category, rate, needed, frequency: (p: string) => judgeFrequency(manifest, this.baseline, category.category, p, rate), ...(code ? { code } : {}) };
+    const ctx = { manifest, baseline: this.baseline, category, rate, needed, ...(instruments ? { instruments } : {}), frequency: (p: string) => judgeFrequency(manifest, this.baseline, category.category, p, rate), ...(code ? { code } : {}) };
     const raw: Finding[] = [];
     for (const check of CHECKS) {
       const level = options.levels?.get(check.meta.id) ?? check.meta.defaultLevel;
       if (level === "off") continue;
       for (const f of check.run(ctx)) raw.push({ checkId: check.meta.id, level, ...f });
     }
-    const findings = foldByPermission(raw);
+    const findings = foldByPermission(raw, new Set(requestedPermissionNames(manifest)));
     findings.sort((a, b) => levelRank(b.level) - levelRank(a.level) || compareText(a.checkId, b.checkId) || compareText(a.subject, b.subject));
     const requested = requestedPermissionNames(manifest);
     const notJudged: NotJudged[] = [];
@@ -109,10 +117,10 @@ export class Judge {
     }
     // Where frequency alone would have called a permission uncommon, the manifest's reason stands instead.
     const neededInstead = [...needed].filter(([p]) => !isOwnPermission(manifest, p) && uncommonJudgement(manifest, this.baseline, category.category, p, rate)).map(([permission, reasons]) => ({ permission, reasons }));
-    const result: CheckResult = { manifest, category, findings, notJudged, needed: neededInstead, ...(code ? { code } : {}) };
+    const result: CheckResult = { manifest, category, findings, notJudged, needed: instruments ? [] : neededInstead, ...(code ? { code } : {}), ...(instruments ? { instruments } : {}) };
     if (this.baseline.era !== undefined) result.era = { api: this.baseline.era, targetNewer: (manifest.targetSdk ?? 0) > this.baseline.era };
     // The app's own permissions say nothing about it against other apps: the risk leaves them out too.
-    if (this.scorer) result.risk = this.scorer.estimate(category.category, requested.filter((p) => !isOwnPermission(manifest, p)), options.prevalence);
+    if (this.scorer && !instruments) result.risk = this.scorer.estimate(category.category, requested.filter((p) => !isOwnPermission(manifest, p)), options.prevalence);
     if (options.policies?.length) {
       const subject = { manifest, ...(category.category ? { category: category.category } : {}), ...(result.risk ? { risk: result.risk.probability } : {}), ...(result.risk?.atypicality ? { atypicality: result.risk.atypicality.percentile } : {}) };
       for (const p of options.policies) findings.push(...evaluatePolicy(p, subject));
@@ -124,15 +132,14 @@ export class Judge {
 
 /**
  * One finding a permission: where several permission checks report the same requested permission (for
- * example uncommon for the category and without effect at the target SDK), the most severe finding keeps
+ * example uncommon for the category and without effect at the target SDK, or special access), the most severe finding keeps
  * the others' reasons in `also`. Component findings are left as they are.
  */
-function foldByPermission(findings: Finding[]): Finding[] {
-  const permissionChecks = checkIdsTagged("trim");
+function foldByPermission(findings: Finding[], requested: ReadonlySet<string>): Finding[] {
   const out: Finding[] = [];
   const byPermission = new Map<string, Finding[]>();
   for (const f of findings) {
-    if (!permissionChecks.has(f.checkId)) out.push(f);
+    if (!requested.has(f.subject)) out.push(f);
     else byPermission.set(f.subject, [...(byPermission.get(f.subject) ?? []), f]);
   }
   for (const group of byPermission.values()) {

@@ -9,6 +9,9 @@
  * - MANAGE_OWN_CALLS, when the app declares a self-managed ConnectionService (a service guarded by
  *   BIND_TELECOM_CONNECTION_SERVICE that handles android.telecom.ConnectionService; from memory:
  *   developer.android.com/develop/connectivity/telecom/selfManaged);
+ * - USE_FULL_SCREEN_INTENT for a calling app (a ConnectionService or a phoneCall service): Android 14 keeps
+ *   full-screen notifications for calling and alarm apps (from memory:
+ *   developer.android.com/about/versions/14/behavior-changes-all, full-screen intent permissions);
  * - the Health Connect permissions (android.permission.health.*), when the app declares the activity that
  *   shows its rationale for them (action androidx.health.ACTION_SHOW_PERMISSIONS_RATIONALE, or the
  *   VIEW_PERMISSION_USAGE alias with category HEALTH_PERMISSIONS from Android 14; from memory:
@@ -29,10 +32,12 @@ export type NeedReason =
   | { kind: "service-type"; service: string; type: string }
   | { kind: "service-type-prerequisite"; service: string; type: string; anyOf: string[] }
   | { kind: "self-managed-calls"; service: string }
+  | { kind: "calling-app"; service: string }
   | { kind: "health-connect"; activity: string };
 
 const FOREGROUND_SERVICE = "android.permission.FOREGROUND_SERVICE";
 const MANAGE_OWN_CALLS = "android.permission.MANAGE_OWN_CALLS";
+const FULL_SCREEN_INTENT = "android.permission.USE_FULL_SCREEN_INTENT";
 const BIND_CONNECTION_SERVICE = "android.permission.BIND_TELECOM_CONNECTION_SERVICE";
 const HEALTH_PREFIX = "android.permission.health.";
 const HEALTH_RATIONALE = "androidx.health.ACTION_SHOW_PERMISSIONS_RATIONALE";
@@ -61,6 +66,7 @@ export function neededByManifest(m: Manifest): ReadonlyMap<string, NeedReason[]>
       }
     }
     if (isSelfManagedConnectionService(c)) add(MANAGE_OWN_CALLS, { kind: "self-managed-calls", service: c.name });
+    if (isSelfManagedConnectionService(c) || (c.kind === "service" && c.foregroundServiceType?.includes("phoneCall"))) add(FULL_SCREEN_INTENT, { kind: "calling-app", service: c.name });
   }
   const rationale = m.components.find(showsHealthRationale);
   if (rationale) for (const p of requested) if (p.startsWith(HEALTH_PREFIX)) add(p, { kind: "health-connect", activity: rationale.name });

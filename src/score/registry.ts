@@ -1,5 +1,6 @@
 /** Every check, sorted by id. A test keeps this list, the docs pages and the tests in step. */
 import { backgroundLocationAlone } from "./checks/background-location-alone.js";
+import { debuggable } from "./checks/debuggable.js";
 import { exportedMissing } from "./checks/exported-missing.js";
 import { exportedUnguarded } from "./checks/exported-unguarded.js";
 import { noEffectAtTarget } from "./checks/no-effect-at-target.js";
@@ -7,6 +8,8 @@ import { notSeenInCode } from "./checks/not-seen-in-code.js";
 import { sensitiveUncommon } from "./checks/sensitive-uncommon.js";
 import { serviceTypePermission } from "./checks/service-type-permission.js";
 import { specialAccessComponent } from "./checks/special-access-component.js";
+import { specialAccessPermission } from "./checks/special-access-permission.js";
+import { targetBelowInstallable } from "./checks/target-below-installable.js";
 import { uncommonForCategory } from "./checks/uncommon-for-category.js";
 import { ungrantablePermission } from "./checks/ungrantable-permission.js";
 import { unknownPermission } from "./checks/unknown-permission.js";
@@ -16,6 +19,7 @@ import type { Check, CheckTag } from "./types.js";
 
 export const CHECKS: readonly Check[] = [
   backgroundLocationAlone,
+  debuggable,
   exportedMissing,
   exportedUnguarded,
   noEffectAtTarget,
@@ -23,6 +27,8 @@ export const CHECKS: readonly Check[] = [
   sensitiveUncommon,
   serviceTypePermission,
   specialAccessComponent,
+  specialAccessPermission,
+  targetBelowInstallable,
   uncommonForCategory,
   ungrantablePermission,
   unknownPermission,

@@ -50,6 +50,8 @@ export interface CheckContext {
   code?: CodeEvidence;
   /** The requested permissions the manifest shows the app needs, with why (score/needed.ts). */
   needed: ReadonlyMap<string, NeedReason[]>;
+  /** A test APK: the package it instruments (score/judge.ts); such an APK is not judged as a store app. */
+  instruments?: string;
 }
 
 /** Data a finding carries; each check documents its own keys. */

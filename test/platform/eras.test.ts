@@ -24,7 +24,7 @@ describe("added-in table", () => {
     for (const [name, a] of addedInTable()) {
       expect(platformPermission(name), name).toBeDefined();
       expect(a.api, name).toBeGreaterThanOrEqual(1);
-      expect(a.api, name).toBeLessThanOrEqual(34);
+      expect(a.api, name).toBeLessThanOrEqual(36); // the newest platform table is API 36
       expect(a.source.length, name).toBeGreaterThan(10);
     }
   });
@@ -78,9 +78,17 @@ describe("judgeByEra", () => {
 
   it("follows predecessors back until one is within the era", () => {
     expect(judgeByEra("android.permission.READ_MEDIA_IMAGES", 29)).toMatchObject({ kind: "predecessor", predecessors: ["android.permission.READ_EXTERNAL_STORAGE"], addedIn: 33 });
-    // READ_MEDIA_VISUAL_USER_SELECTED (34) ← READ_MEDIA_IMAGES/VIDEO (33) ← READ_EXTERNAL_STORAGE.
-    expect(judgeByEra("android.permission.READ_MEDIA_VISUAL_USER_SELECTED", 29)).toMatchObject({ kind: "predecessor", predecessors: ["android.permission.READ_EXTERNAL_STORAGE"] });
-    expect(judgeByEra("android.permission.READ_MEDIA_VISUAL_USER_SELECTED", 33)).toMatchObject({ kind: "predecessor", predecessors: ["android.permission.READ_MEDIA_IMAGES", "android.permission.READ_MEDIA_VIDEO"] });
+    expect(judgeByEra("android.permission.BLUETOOTH_CONNECT", 29)).toMatchObject({ kind: "predecessor", predecessors: ["android.permission.BLUETOOTH", "android.permission.BLUETOOTH_ADMIN"], addedIn: 31 });
+  });
+
+  it("never judges a permission by those it is needed alongside (a service type's, partial photo access)", () => {
+    // developer.android.com/develop/background-work/services/fgs/service-types: a type's permission is requested
+    // "in addition to" FOREGROUND_SERVICE; partial photo access is declared beside READ_MEDIA_IMAGES/VIDEO.
+    expect(judgeByEra("android.permission.READ_MEDIA_VISUAL_USER_SELECTED", 33)).toMatchObject({ kind: "alongside", addedIn: 34 });
+    expect(judgeByEra("android.permission.FOREGROUND_SERVICE_DATA_SYNC", 29)).toMatchObject({ kind: "alongside", addedIn: 34 });
+    expect(judgeByEra("android.permission.FOREGROUND_SERVICE_MEDIA_PROCESSING", 29)).toMatchObject({ kind: "alongside", addedIn: 35 });
+    // All-files access (API 30) is special access, not a successor of WRITE_EXTERNAL_STORAGE.
+    expect(judgeByEra("android.permission.MANAGE_EXTERNAL_STORAGE", 29)).toMatchObject({ kind: "no-evidence", addedIn: 30 });
   });
 
   it("does not measure what made an old behaviour explicit, and has no evidence for what is simply new", () => {

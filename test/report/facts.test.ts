@@ -18,7 +18,7 @@ describe("factsToText", () => {
   it("lists every requested permission with its platform protection level", () => {
     // Protection levels from the platform table (API 34): READ_SMS dangerous, SYSTEM_ALERT_WINDOW signature|appop.
     expect(text).toMatch(/Runtime: the user is asked when the app uses it \(7\)\n(.*\n)*? {4}READ_SMS/);
-    expect(text).toMatch(/Special access: the user grants it in settings \(1\)\n {4}SYSTEM_ALERT_WINDOW\s+signature, .*appop/);
+    expect(text).toMatch(/Special access: the user grants it by hand \(settings, developer options\) \(1\)\n {4}SYSTEM_ALERT_WINDOW\s+signature, .*appop/);
   });
 
   it("keeps lines within 80 columns", () => {

@@ -157,7 +157,8 @@ describe("map coverage", () => {
     // the rest (body sensors, UWB ranging, background location, selected-photos access, handover) have no
     // API of their own in any map — they are "not mappable".
     const { platformPermissions } = await import("../../src/platform/permissions.js");
-    const dangerous = [...platformPermissions().values()].filter((p) => p.base === "dangerous");
+    // The API-34 framework's (the maps stop at API 25; what came later, RANGING, XR and Health Connect, is not mapped).
+    const dangerous = [...platformPermissions().values()].filter((p) => p.base === "dangerous" && p.definedBy === "framework" && p.tableAddedIn === undefined);
     const map = apiPermissionMap();
     const uncovered = dangerous.filter((p) => !map.covered.has(p.name)).map((p) => p.name.replace("android.permission.", "")).sort();
     expect(dangerous).toHaveLength(42);

@@ -153,6 +153,7 @@ export function buildManifest(doc: XmlDocument, input: InputInfo, resolve?: Refe
 function readTopElement(rd: Reader, el: XmlElement, m: Manifest, pending: { el: XmlElement; kind: ComponentKind }[]): void {
   switch (el.name) {
     case "uses-sdk": {
+      m.usesSdkSource = where(el);
       const min = rd.sdk(el, "minSdkVersion");
       const target = rd.sdk(el, "targetSdkVersion");
       const max = rd.sdk(el, "maxSdkVersion");
@@ -209,6 +210,12 @@ function readTopElement(rd: Reader, el: XmlElement, m: Manifest, pending: { el: 
       });
       break;
     }
+    case "instrumentation": {
+      const name = rd.string(el, "name");
+      const targetPackage = rd.string(el, "targetPackage");
+      if (name && targetPackage) (m.instrumentation ??= []).push({ name: qualifyClassName(m.package, name), targetPackage, source: where(el) });
+      break;
+    }
     case "queries":
       for (const q of el.children) {
         if (q.name === "package") {
@@ -228,6 +235,7 @@ function readTopElement(rd: Reader, el: XmlElement, m: Manifest, pending: { el: 
 }
 
 function readApplication(rd: Reader, app: XmlElement, m: Manifest, pending: { el: XmlElement; kind: ComponentKind }[]): void {
+  m.application.source = where(app);
   const labelAttr = rd.attr(app, "label");
   if (labelAttr) {
     const raw = labelAttr.value;

@@ -111,6 +111,8 @@ export interface Queries {
 }
 
 export interface ApplicationFlags {
+  /** Where the <application> element is (absent when the manifest has none). */
+  source?: SourceLocation;
   debuggable?: boolean;
   allowBackup?: boolean;
   usesCleartextTraffic?: boolean;
@@ -148,6 +150,13 @@ export interface Manifest {
   components: Component[];
   queries: Queries;
   metaData: MetaData[];
+  /** Where the <uses-sdk> element is, when there is one. */
+  usesSdkSource?: SourceLocation;
+  /**
+   * `<instrumentation>` elements: a test APK names the app it instruments (`targetPackage`); it runs in
+   * that app's process, with that app's permissions (from memory: the platform's instrumentation docs).
+   */
+  instrumentation?: { name: string; targetPackage: string; source: SourceLocation }[];
   input: InputInfo;
   /** The `split` attribute of a split APK's manifest. */
   split?: string;

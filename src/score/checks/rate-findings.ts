@@ -11,6 +11,8 @@ import type { CheckContext, Finding, FindingData } from "../types.js";
 
 export function rateFindings(ctx: CheckContext, select: (permission: string) => boolean): Omit<Finding, "level" | "checkId">[] {
   const out: Omit<Finding, "level" | "checkId">[] = [];
+  // A test APK runs with the permissions of the app it instruments: how common its own requests are says nothing.
+  if (ctx.instruments) return out;
   const first = new Map(ctx.manifest.usesPermissions.map((p) => [p.name, p] as const).reverse());
   for (const name of requestedPermissionNames(ctx.manifest)) {
     // A permission the manifest shows the app needs is not judged by how common it is (score/needed.ts).

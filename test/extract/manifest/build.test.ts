@@ -72,6 +72,6 @@ describe("the manifest model", () => {
 
   it("reads the application flags a reviewer looks at", () => {
     const m = readManifestFile(`${APK_DIR}pocketlamp.apk`);
-    expect(m.application).toEqual({ debuggable: true, usesCleartextTraffic: true, networkSecurityConfig: false });
+    expect(m.application).toEqual({ debuggable: true, usesCleartextTraffic: true, networkSecurityConfig: false, source: { path: "/manifest/application", line: expect.any(Number) } });
   });
 });
