@@ -39,8 +39,10 @@ describe.runIf(hasChromium)("the check report in chromium", () => {
     expect(await page.textContent("body")).toMatch(/missing\.apk: no such file/);
     const lamp = page.locator("section.app").first();
     expect(await lamp.locator(".risk .caution").textContent()).toMatch(/not evidence of intent or harm/);
-    expect(await lamp.locator("h4").allTextContents()).toEqual(["Warnings (4)", "Notes (6)"]);
-    expect(await lamp.locator("ul.findings li").first().textContent()).toMatch(/READ_SMS\s*\(warning: sensitive-uncommon\)\s*18 of 2318 TOOLS apps request it/);
+    // The demo app is debuggable (a warning) and asks to draw over other apps (a special-access note).
+    expect(await lamp.locator("h4").allTextContents()).toEqual(["Warnings (5)", "Notes (7)"]);
+    expect(await lamp.locator("ul.findings li").first().textContent()).toMatch(/application\s*\(warning: debuggable\)/);
+    expect(await lamp.locator("ul.findings li").nth(1).textContent()).toMatch(/READ_SMS\s*\(warning: sensitive-uncommon\)\s*18 of 2318 TOOLS apps request it/);
     // A bar for each requested permission frequency judges; READ_SMS's is red (uncommon).
     expect(await lamp.locator("table.perms tbody tr").count()).toBe(14);
     expect(await lamp.locator("tr:has-text('READ_SMS') .bar.uncommon").count()).toBe(1);
