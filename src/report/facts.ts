@@ -77,6 +77,8 @@ function permissionNotes(p: RequestedPermission, group: GroupId, code?: CodeEvid
   if (c) notes.push(c);
   if (group === "undefined") notes.push(f.unknownPlatformName ? "an android.permission name the platform does not define" : "another app's permission");
   if (group === "unreachable" || group === "special") notes.push([f.base, ...(f.flags ?? [])].filter(Boolean).join(", "));
+  if (f.module === "health-connect") notes.push("Health Connect");
+  if (f.featureFlag) notes.push(`defined under feature flag ${f.featureFlag}`);
   if (f.hardRestricted) notes.push("hard-restricted");
   if (f.softRestricted) notes.push("soft-restricted");
   if (f.removed) notes.push(REMOVED_PERMISSION_SHORT);

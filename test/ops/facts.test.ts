@@ -34,6 +34,16 @@ describe("facts", () => {
     expect(out).toMatch(/Install-time: granted without asking \(1\)\n {4}FOREGROUND_SERVICE_SPECIAL_USE/);
   });
 
+  it("notes a Health Connect permission and one the platform defines under a feature flag", async () => {
+    // Platform tables: android.permission.RANGING is dangerous under android.permission.flags.ranging_permission_enabled
+    // (API 36); health.READ_STEPS is the Health Connect module's (health-connect-permissions.tsv).
+    const path = join(dir, "flags.xml");
+    writeFileSync(path, `<manifest xmlns:android="http://schemas.android.com/apk/res/android" package="org.example.flags"><uses-sdk android:minSdkVersion="26" android:targetSdkVersion="36"/><uses-permission android:name="android.permission.RANGING"/><uses-permission android:name="android.permission.health.READ_STEPS"/><application/></manifest>`);
+    const out = (await cli(["facts", path])).stdout.replace(/\s+/g, " ");
+    expect(out).toMatch(/RANGING defined under feature flag android\.permission\.flags\.ranging_permission_enabled/);
+    expect(out).toMatch(/health\.READ_STEPS Health Connect/);
+  });
+
   it("says that an app targeting below 23 gets its runtime permissions at install", async () => {
     const path = join(dir, "old.xml");
     writeFileSync(path, `<manifest xmlns:android="http://schemas.android.com/apk/res/android" package="org.example.old"><uses-sdk android:minSdkVersion="15" android:targetSdkVersion="22"/><uses-permission android:name="android.permission.READ_CONTACTS"/><application/></manifest>`);

@@ -362,6 +362,8 @@ function annotatePermissions(m: Manifest): void {
         removed: platform.removed,
       };
       if (platform.docNote) facts.docNote = platform.docNote;
+      if (platform.featureFlag) facts.featureFlag = platform.featureFlag;
+      if (platform.definedBy === "health-connect") facts.module = "health-connect";
     } else if (declared.has(p.name)) {
       const d = declared.get(p.name)!;
       facts = { origin: "app", protectionLevel: [d.protectionLevel.base, ...d.protectionLevel.flags].join("|"), base: d.protectionLevel.base, flags: d.protectionLevel.flags };

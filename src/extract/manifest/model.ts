@@ -38,6 +38,10 @@ export interface PermissionFacts {
   /** The platform keeps the name only for backwards compatibility. */
   removed?: boolean;
   docNote?: string;
+  /** The aconfig flag the platform defines it under (Android 15+; `!flag`: only while the flag is off). */
+  featureFlag?: string;
+  /** A platform module defines it rather than the framework (Health Connect). */
+  module?: "health-connect";
   /** The name looks like a platform permission (`android.permission.*`) but the platform does not define it. */
   unknownPlatformName?: boolean;
 }
