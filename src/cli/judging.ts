@@ -1,6 +1,7 @@
 /** The options the judging commands share, turned into what the score layer takes. */
 import type { Baseline } from "../baseline/rates.js";
 import { UsageError } from "../errors.js";
+import { shown } from "./options.js";
 import { readCategoryIndex, type FileJudgeOptions } from "../ops/check.js";
 import { readPolicyFile } from "../ops/policy.js";
 import { categoryList, nearestCategory, resolveCategory } from "../score/category.js";
@@ -28,13 +29,13 @@ export function judgeOptions(o: JudgingCliOptions, baseline?: Baseline): FileJud
   if (o.category) {
     if (baseline && resolveCategory(baseline, o.category).fallback === "unknown-category") {
       const near = nearestCategory(baseline, o.category);
-      throw new UsageError(`--category "${o.category}" is not a category of the baseline${near ? `; did you mean "${near}"?` : ""} Its categories: ${categoryList(baseline)}`);
+      throw new UsageError(`--category ${shown(o.category)} is not a category of the baseline${near ? `; did you mean "${near}"?` : ""}; its categories: ${categoryList(baseline)}`);
     }
     options.category = o.category;
   }
   if (o.categories) options.categoryIndex = readCategoryIndex(o.categories);
   for (const id of o.level?.keys() ?? []) {
-    if (!checkById(id)) throw new UsageError(`--level names an unknown check "${id}"; the checks are ${CHECKS.map((c) => c.meta.id).join(", ")}`);
+    if (!checkById(id)) throw new UsageError(`--level names an unknown check ${shown(id)}; the checks are ${CHECKS.map((c) => c.meta.id).join(", ")}`);
   }
   options.levels = o.level ?? new Map();
   if (o.prevalence !== undefined) options.prevalence = o.prevalence;

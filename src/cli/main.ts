@@ -74,7 +74,7 @@ function withJudgingOptions(cmd: Command, category = "category to judge against 
 function withGates(cmd: Command, what: string): Command {
   return cmd
     .addOption(new Option("--fail-on <level>", `exit 1 when ${what} a finding at or above this level`).choices(["error", "warning", "note"]))
-    .option("--max-risk <p>", "exit 1 when an app's risk is above this probability", closedUnit);
+    .option("--max-risk <p>", "exit 1 when an app's risk is above this probability (0.3 or 30%)", closedUnit);
 }
 
 const formatOption = (formats: string[]) => new Option("-f, --format <format>", "output format").choices(formats).default(formats[0]);

@@ -18,8 +18,28 @@ export function numberParser(ok: (n: number) => boolean, what: string): (value: 
 export const wholeNumber = (min: number) => numberParser((n) => Number.isInteger(n) && n >= min, `a whole number ≥ ${min}`);
 export const anInteger = numberParser(Number.isInteger, "a whole number");
 export const nonNegative = numberParser((n) => n >= 0, "a number ≥ 0");
-export const openUnit = numberParser((n) => n > 0 && n < 1, "between 0 and 1");
-export const closedUnit = numberParser((n) => n >= 0 && n <= 1, "between 0 and 1");
+/**
+ * A share, as a fraction (0.3) or a percent (30%), the way every output prints it; `ok` checks the fraction.
+ */
+export function shareParser(ok: (n: number) => boolean, what: string): (value: string) => number {
+  const fraction = numberParser(ok, what);
+  return (value) => {
+    const t = value.trim();
+    if (!t.endsWith("%")) return fraction(t);
+    const n = Number(t.slice(0, -1));
+    if (t.length === 1 || !Number.isFinite(n) || !ok(n / 100)) throw new InvalidArgumentError(`It must be ${what}.`);
+    return n / 100;
+  };
+}
+
+export const openUnit = shareParser((n) => n > 0 && n < 1, "between 0 and 1 (or 0% and 100%)");
+export const closedUnit = shareParser((n) => n >= 0 && n <= 1, "between 0 and 1 (or 0% and 100%)");
+
+/** A value the user gave, as an error message quotes it: cut to 60 characters, so a huge value stays one line. */
+export function shown(value: string): string {
+  const flat = value.replace(/\s+/g, " ");
+  return `"${flat.length > 60 ? `${flat.slice(0, 57)}…` : flat}"`;
+}
 
 /** Repeatable options collect into a list. */
 export function collect(value: string, previous: string[] = []): string[] {

@@ -7,6 +7,7 @@
  */
 import { PERMISSION_TABLE_HEADER, PERMISSION_TABLE_ROWS } from "./generated/permission-table.js";
 import { protectionFromText, type BaseLevel } from "./protection.js";
+import { editDistanceWithin } from "../util/edit-distance.js";
 
 export const PLATFORM_TABLE_VERSION = "android-36 (framework core/res/AndroidManifest.xml, with feature flags) + Health Connect module; see src/platform/data/SOURCES*.md";
 
@@ -116,4 +117,44 @@ export function normalizePermissionName(name: string): string {
     }
   }
   return bareNames.get(trimmed) ?? trimmed;
+}
+
+/** Nearest-name answers kept per name: a sweep meets the same misspelling in app after app. Bounded. */
+const nearestCache = new Map<string, { name: string; distance: number }>();
+const NEAREST_CACHE_LIMIT = 10_000;
+let byLength: Map<number, { name: string; index: number }[]> | undefined;
+
+/**
+ * The `android.permission.*` platform name nearest to `name` by edit distance (optimal string alignment),
+ * ties to the one first in the table: the answer of a scan over every name, found by looking at names in
+ * order of how far their length is from `name`'s and stopping once no length can beat the best, each
+ * comparison itself stopped at the best distance so far; and remembered per name.
+ */
+export function nearestPlatformPermission(name: string): { name: string; distance: number } {
+  const cached = nearestCache.get(name);
+  if (cached) return cached;
+  if (!byLength) {
+    byLength = new Map();
+    let index = 0;
+    for (const p of platformPermissions().keys()) {
+      if (!p.startsWith("android.permission.")) continue;
+      const list = byLength.get(p.length) ?? [];
+      list.push({ name: p, index: index++ });
+      byLength.set(p.length, list);
+    }
+  }
+  let best = { name: "", distance: Infinity, index: Infinity };
+  const lengths = [...byLength.keys()].sort((a, b) => Math.abs(a - name.length) - Math.abs(b - name.length) || a - b);
+  for (const len of lengths) {
+    if (Math.abs(len - name.length) > best.distance) break;
+    for (const c of byLength.get(len)!) {
+      const bound = Number.isFinite(best.distance) ? best.distance : Math.max(name.length, len);
+      const d = editDistanceWithin(name, c.name, bound);
+      if (d < best.distance || (d === best.distance && c.index < best.index)) best = { name: c.name, distance: d, index: c.index };
+    }
+  }
+  const answer = { name: best.name, distance: best.distance };
+  if (nearestCache.size >= NEAREST_CACHE_LIMIT) nearestCache.clear();
+  nearestCache.set(name, answer);
+  return answer;
 }

@@ -54,3 +54,18 @@ describe("overask baseline -p says what check makes of a permission", () => {
     }
   });
 });
+
+describe("overask baseline -p with a name nobody knows", () => {
+  it("says it is no permission the platform or the baseline knows, and suggests the nearest (exit 2)", async () => {
+    const r = await cli(["baseline", "-p", "READ_SMSS"]);
+    expect(r.code).toBe(EXIT.USAGE);
+    expect(r.stderr).toBe('overask: --permission "READ_SMSS" is not a permission the platform defines or any app of the baseline requests; did you mean READ_SMS?\n');
+    expect(r.stdout).toBe("");
+  });
+
+  it("still shows another app's permission that apps of the baseline request", async () => {
+    // com.google.android.c2dm.permission.RECEIVE: requested by store apps of the bundled corpus (its counts).
+    const r = await cli(["baseline", "-p", "com.google.android.c2dm.permission.RECEIVE"]);
+    expect(r.code).toBe(EXIT.OK);
+  });
+});

@@ -31,3 +31,15 @@ describe("typed option parsers", () => {
     expect(r.stderr).toMatch(/unknown check "nosuch"; the checks are background-location-alone, .*weak-guard/);
   });
 });
+
+describe("shares", () => {
+  it("take a fraction or a percent, as the outputs print them", async () => {
+    const { closedUnit, openUnit } = await import("../../src/cli/options.js");
+    expect(closedUnit("0.5")).toBe(0.5);
+    expect(closedUnit("50%")).toBe(0.5);
+    expect(closedUnit(" 7.5% ")).toBeCloseTo(0.075, 12);
+    expect(openUnit("95%")).toBeCloseTo(0.95, 12);
+    for (const bad of ["%", "150%", "-1%", "abc%", "1.5"]) expect(() => closedUnit(bad), bad).toThrow(/between 0 and 1 \(or 0% and 100%\)/);
+    expect(() => openUnit("100%")).toThrow();
+  });
+});

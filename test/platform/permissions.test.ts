@@ -62,3 +62,41 @@ describe("platform permission table", () => {
     expect(parsePlatformTable(ours).size).toBe(913);
   });
 });
+
+describe("the nearest platform name", () => {
+  it("is what a scan over every name finds, for platform names with one or two random edits", async () => {
+    const { nearestPlatformPermission } = await import("../../src/platform/permissions.js");
+    const { editDistance } = await import("../../src/util/edit-distance.js");
+    const { seededRandom } = await import("../../src/util/random.js");
+    const names = [...platformPermissions().keys()].filter((p) => p.startsWith("android.permission."));
+    // The reference: every name, the first in table order among the nearest.
+    const scan = (q: string) => {
+      let best = { name: "", distance: Infinity };
+      for (const p of names) {
+        const d = editDistance(q, p);
+        if (d < best.distance) best = { name: p, distance: d };
+      }
+      return best;
+    };
+    const rand = seededRandom(26);
+    const letters = "ABCDEFGHIJKLMNOPQRSTUVWXYZ_";
+    const edit = (s: string) => {
+      const i = Math.floor(rand() * s.length);
+      const r = rand();
+      if (r < 0.3) return s.slice(0, i) + s.slice(i + 1); // delete
+      if (r < 0.6) return s.slice(0, i) + letters[Math.floor(rand() * letters.length)] + s.slice(i); // insert
+      if (r < 0.8) return s.slice(0, i) + letters[Math.floor(rand() * letters.length)] + s.slice(i + 1); // substitute
+      return i + 1 < s.length ? s.slice(0, i) + s[i + 1] + s[i] + s.slice(i + 2) : s; // transpose
+    };
+    // Every 12th name (about 85), alternately one and two edits: the reference scan costs ~70 ms a query.
+    let checked = 0;
+    for (let k = 0; k < names.length; k += 12) {
+      const q = (k / 12) % 2 ? edit(edit(names[k])) : edit(names[k]);
+      const first = nearestPlatformPermission(q);
+      expect(first, q).toEqual(scan(q));
+      expect(nearestPlatformPermission(q)).toBe(first); // again: the same answer, from the cache
+      checked++;
+    }
+    expect(checked).toBeGreaterThan(80);
+  }, 60_000);
+});

@@ -10,3 +10,18 @@ describe("editDistance", () => {
     expect(editDistance("", "abc")).toBe(3);
   });
 });
+
+describe("editDistanceWithin", () => {
+  it("agrees with editDistance up to the bound, and says 'more' past it", async () => {
+    const { editDistance, editDistanceWithin } = await import("../../src/util/edit-distance.js");
+    const pairs: [string, string][] = [["READ_SMSS", "READ_SMS"], ["CAMREA", "CAMERA"], ["INTERNET", "INTERNET"], ["ACCESS_FINE_LOCATON", "ACCESS_FINE_LOCATION"], ["BLUETOOTH", "BODY_SENSORS"], ["", "ABC"]];
+    for (const [a, b] of pairs) {
+      const d = editDistance(a, b);
+      for (let max = 0; max <= 6; max++) {
+        const w = editDistanceWithin(a, b, max);
+        if (d <= max) expect(w, `${a} ${b} ${max}`).toBe(d);
+        else expect(w, `${a} ${b} ${max}`).toBeGreaterThan(max);
+      }
+    }
+  });
+});

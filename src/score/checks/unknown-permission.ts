@@ -1,21 +1,9 @@
 /** unknown-permission: an android.permission.* name the platform does not define. */
-import { platformPermissions } from "../../platform/permissions.js";
+import { nearestPlatformPermission } from "../../platform/permissions.js";
 import { editDistance } from "../../util/edit-distance.js";
 import type { Check } from "../types.js";
 
-export { editDistance };
-
-/** The platform permission nearest to `name` by edit distance, with the distance. */
-export function nearestPlatformPermission(name: string): { name: string; distance: number } {
-  let best = { name: "", distance: Infinity };
-  for (const p of platformPermissions().keys()) {
-    if (!p.startsWith("android.permission.")) continue;
-    if (Math.abs(p.length - name.length) >= best.distance) continue;
-    const dist = editDistance(name, p);
-    if (dist < best.distance) best = { name: p, distance: dist };
-  }
-  return best;
-}
+export { editDistance, nearestPlatformPermission };
 
 /** Up to this many edits, a near platform name is reported as a likely typo. */
 const TYPO_DISTANCE = 2;
