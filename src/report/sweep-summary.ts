@@ -15,6 +15,8 @@ export interface SweepTotals {
   baseRate?: number;
   scored: number;
   failed: number;
+  /** Some of the inputs that could not be read (at most ten). */
+  failedIds?: string[];
   byBand: Record<string, number>;
   top: { id: string; package?: string; risk: number; band?: string }[];
   shard?: { index: number; count: number };
@@ -26,6 +28,10 @@ export interface SweepTotals {
 export function sweepSummaryText(s: SweepTotals): string {
   const out: string[] = [];
   out.push(`Swept ${s.inputs} input${s.inputs === 1 ? "" : "s"}${s.shard ? ` (shard ${s.shard.index}/${s.shard.count})` : ""}: ${s.scored} scored, ${s.failed} could not be read${s.skipped ? `, ${s.skipped} kept from the earlier run` : ""}.`);
+  if (s.failed && s.failedIds?.length) {
+    const more = s.failed - s.failedIds.length;
+    out.push(`Could not be read: ${s.failedIds.join(", ")}${more > 0 ? ` and ${more} more` : ""} (each a row with status "failed" and its error in ${s.output}).`);
+  }
   if (s.notManifests) out.push(`Passed over ${s.notManifests} .xml file${s.notManifests === 1 ? "" : "s"} that are not manifests (resource files).`);
   if (s.unknownCategory) out.push(`${s.unknownCategory} app${s.unknownCategory === 1 ? "" : "s"} named a category the baseline does not have: judged against all categories pooled (see the fallback column).`);
   const bands = ["high", "elevated", "low"].filter((b) => s.byBand[b]).map((b) => `${s.byBand[b]} ${b}`);

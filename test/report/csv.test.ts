@@ -30,4 +30,13 @@ describe("app rows as CSV", () => {
     expect(rowFromCsv(splitCsvLine(csvHeader().trim())!)).toBeUndefined();
     expect(rowFromCsv(["a", "b"])).toBeUndefined();
   });
+
+  it("carries the requested permissions for joining with a spreadsheet, and reads them back", () => {
+    const withPerms = { ...row, permissions: ["android.permission.CAMERA", "android.permission.READ_SMS"] };
+    const fields = splitCsvLine(rowToCsv(withPerms).trim())!;
+    expect(fields[ROW_CSV_COLUMNS.indexOf("permissions")]).toBe("android.permission.CAMERA android.permission.READ_SMS");
+    expect(rowFromCsv(fields)?.permissions).toEqual(withPerms.permissions);
+    // An output written before the column existed still reads (one column fewer).
+    expect(rowFromCsv(fields.slice(0, -1))?.id).toBe(row.id);
+  });
 });

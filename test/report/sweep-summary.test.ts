@@ -9,7 +9,8 @@ const totals = {
   gated: 3,
   baseRate: 0.37,
   scored: 10,
-  failed: 2,
+  failed: 12,
+  failedIds: ["apps/broken.apk", "apps/empty.apk"],
   byBand: { low: 7, elevated: 2, high: 1 },
   top: [
     { id: "apps/lamp.apk", package: "org.example.lamp", risk: 0.912, band: "high" },
@@ -24,7 +25,8 @@ describe("the sweep's text summary", () => {
   const text = sweepSummaryText(totals);
 
   it("counts what was swept, kept, passed over and could not be read", () => {
-    expect(text).toMatch(/^Swept 12 inputs: 10 scored, 2 could not be read, 2 kept from the earlier run\./);
+    expect(text).toMatch(/^Swept 12 inputs: 10 scored, 12 could not be read, 2 kept from the earlier run\./);
+    expect(text).toContain('Could not be read: apps/broken.apk, apps/empty.apk and 10 more (each a row with status "failed" and its error in out.jsonl).');
     expect(text).toContain("Passed over 1 .xml file that are not manifests");
     expect(text).toContain("1 app named a category the baseline does not have");
     expect(text).toContain("3 apps at or above the --fail-on level or over --max-risk.");

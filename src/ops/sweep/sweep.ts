@@ -50,6 +50,8 @@ export interface SweepSummary extends SweepTotals {
 
 /** How many of the highest risks the summary keeps. */
 const TOP = 10;
+/** How many inputs that could not be read the summary names. */
+const FAILED_NAMED = 10;
 
 /** Running totals for the summary, so that no result has to stay in memory. */
 export class Tally {
@@ -60,9 +62,14 @@ export class Tally {
   constructor(private readonly gates: Gates = {}) {}
   readonly byBand: Record<string, number> = {};
   readonly top: SweepTotals["top"] = [];
+  /** The first inputs that could not be read (the summary names them; the output has them all). */
+  readonly failedIds: string[] = [];
   add(r: Omit<ScoredLine, "line">): void {
     if (r.status === "scored") this.scored++;
-    else this.failed++;
+    else {
+      this.failed++;
+      if (this.failedIds.length < FAILED_NAMED) this.failedIds.push(r.id);
+    }
     if (r.band) this.byBand[r.band] = (this.byBand[r.band] ?? 0) + 1;
     if (r.fallback === "unknown-category") this.unknownCategory++;
     if (tripsGate(r, this.gates)) this.gated++;
@@ -143,6 +150,7 @@ export class SweepOutput {
       gated: t.gated,
       scored: t.scored,
       failed: t.failed,
+      failedIds: [...t.failedIds].sort(compareText),
       byBand: t.byBand,
       top: t.top,
       ...(o.shard ? { shard: o.shard } : {}),

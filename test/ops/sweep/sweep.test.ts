@@ -145,7 +145,7 @@ describe("overask sweep", () => {
     const out = join(base, "out.csv");
     await cli(["sweep", dir, "-o", out, "-b", DEMO, "-j", "1", "--format", "csv"]);
     const text = readFileSync(out, "utf8");
-    expect(text.split("\n")[0]).toBe("id,size,mtimeMs,status,package,versionName,versionCode,category,fallback,risk,band,errors,warnings,notes,checks,errorKind,errorMessage,findings,atypicality,riskAtPrevalence,codeUsed,codeNotSeen,codeNotMappable,codeLibraryOnly,codeProblems");
+    expect(text.split("\n")[0]).toBe("id,size,mtimeMs,status,package,versionName,versionCode,category,fallback,risk,band,errors,warnings,notes,checks,errorKind,errorMessage,findings,atypicality,riskAtPrevalence,codeUsed,codeNotSeen,codeNotMappable,codeLibraryOnly,codeProblems,permissions");
     const inputs = readdirSync(APK_DIR).filter((f) => f.endsWith(".apk")).length + 2;
     expect(text.trim().split("\n")).toHaveLength(inputs + 1);
     const { stdout } = await cli(["sweep", dir, "-o", out, "-b", DEMO, "-j", "1", "--format", "csv", "--resume"]);
