@@ -107,6 +107,11 @@ function version(r: CheckResult): AppVersion {
 const RATE_CHECKS = checkIdsTagged("rate");
 const SPECIAL_ACCESS_CHECKS = checkIdsTagged("special-access");
 
+/** Every finding, those folded into another on the same permission (`also`) as findings of their own. */
+function unfolded(r: CheckResult): Finding[] {
+  return r.findings.flatMap((f) => [f, ...(f.also ?? []).map((a) => ({ ...f, checkId: a.checkId, level: a.level, data: a.data, also: undefined }))]);
+}
+
 export function compareVersions(before: CheckResult, after: CheckResult): Delta {
   const old = new Set(requestedPermissionNames(before.manifest));
   const now = new Set(requestedPermissionNames(after.manifest));
@@ -129,7 +134,7 @@ export function compareVersions(before: CheckResult, after: CheckResult): Delta 
       added: special(after).filter((f) => !oldSpecial.has(key(f))),
       removed: special(before).filter((f) => !newSpecial.has(key(f))),
     },
-    newlyBroken: after.findings.filter((f) => f.checkId.startsWith("policy:") && !before.findings.some((o) => o.checkId === f.checkId && o.subject === f.subject)),
+    newlyBroken: unfolded(after).filter((f) => f.checkId.startsWith("policy:") && !unfolded(before).some((o) => o.checkId === f.checkId && o.subject === f.subject)),
     newlyExported: after.manifest.components.filter((c) => c.effectiveExported && !wasExported.has(`${c.kind} ${c.name}`)).map((c) => ({ kind: c.kind, name: c.name })),
     ...(before.code?.read.length && after.code?.read.length ? { code: compareCode(before.code, after.code) } : {}),
   };

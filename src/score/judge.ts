@@ -104,8 +104,6 @@ export class Judge {
       if (level === "off") continue;
       for (const f of check.run(ctx)) raw.push({ checkId: check.meta.id, level, ...f });
     }
-    const findings = foldByPermission(raw, new Set(requestedPermissionNames(manifest)));
-    findings.sort((a, b) => levelRank(b.level) - levelRank(a.level) || compareText(a.checkId, b.checkId) || compareText(a.subject, b.subject));
     const requested = requestedPermissionNames(manifest);
     const notJudged: NotJudged[] = [];
     for (const p of requested) {
@@ -117,15 +115,17 @@ export class Judge {
     }
     // Where frequency alone would have called a permission uncommon, the manifest's reason stands instead.
     const neededInstead = [...needed].filter(([p]) => !isOwnPermission(manifest, p) && uncommonJudgement(manifest, this.baseline, category.category, p, rate)).map(([permission, reasons]) => ({ permission, reasons }));
-    const result: CheckResult = { manifest, category, findings, notJudged, needed: instruments ? [] : neededInstead, ...(code ? { code } : {}), ...(instruments ? { instruments } : {}) };
+    const result: CheckResult = { manifest, category, findings: [], notJudged, needed: instruments ? [] : neededInstead, ...(code ? { code } : {}), ...(instruments ? { instruments } : {}) };
     if (this.baseline.era !== undefined) result.era = { api: this.baseline.era, targetNewer: (manifest.targetSdk ?? 0) > this.baseline.era };
     // The app's own permissions say nothing about it against other apps: the risk leaves them out too.
     if (this.scorer && !instruments) result.risk = this.scorer.estimate(category.category, requested.filter((p) => !isOwnPermission(manifest, p)), options.prevalence);
     if (options.policies?.length) {
+      // A policy's rules see the risk; their findings on a permission fold in with the checks' (one finding a permission).
       const subject = { manifest, ...(category.category ? { category: category.category } : {}), ...(result.risk ? { risk: result.risk.probability } : {}), ...(result.risk?.atypicality ? { atypicality: result.risk.atypicality.percentile } : {}) };
-      for (const p of options.policies) findings.push(...evaluatePolicy(p, subject));
-      findings.sort((a, b) => levelRank(b.level) - levelRank(a.level) || compareText(a.checkId, b.checkId) || compareText(a.subject, b.subject));
+      for (const p of options.policies) raw.push(...evaluatePolicy(p, subject));
     }
+    result.findings = foldByPermission(raw, new Set(requested));
+    result.findings.sort((a, b) => levelRank(b.level) - levelRank(a.level) || compareText(a.checkId, b.checkId) || compareText(a.subject, b.subject));
     return result;
   }
 }

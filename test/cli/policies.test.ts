@@ -19,6 +19,13 @@ describe("--policy on the judging commands", () => {
     expect(r.code).toBe(EXIT.GATE);
   });
 
+  it("gives a permission one finding, the rule's and the checks' reasons together", async () => {
+    const r = await cli(["check", "-c", "TOOLS", "--policy", OWN, "-f", "json", LAMP]);
+    const sms = JSON.parse(r.stdout).results[0].findings.filter((f: { subject: string }) => f.subject === "android.permission.SEND_SMS");
+    expect(sms).toHaveLength(1);
+    expect([sms[0].checkId, ...sms[0].also.map((a: { checkId: string }) => a.checkId)]).toEqual(expect.arrayContaining(["policy:no-sms-outside-messaging", "sensitive-uncommon"]));
+  });
+
   it("refuses a bad policy in one line (exit 2)", async () => {
     const bad = join(dir, "bad.json");
     writeFileSync(bad, readFileSync(OWN, "utf8").replace('"SEND_SMS"', '"SEND_SMSS"'));
