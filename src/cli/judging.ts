@@ -4,6 +4,7 @@ import { UsageError } from "../errors.js";
 import { shown } from "./options.js";
 import { readCategoryIndex, type FileJudgeOptions } from "../ops/check.js";
 import { readPolicyFile } from "../ops/policy.js";
+import { policyCategoryErrors } from "../score/policy/policy.js";
 import { categoryList, nearestCategory, resolveCategory } from "../score/category.js";
 import { checkById, CHECKS } from "../score/registry.js";
 import type { Level } from "../score/types.js";
@@ -39,6 +40,11 @@ export function judgeOptions(o: JudgingCliOptions, baseline?: Baseline): FileJud
   }
   options.levels = o.level ?? new Map();
   if (o.prevalence !== undefined) options.prevalence = o.prevalence;
-  if (o.policy?.length) options.policies = o.policy.map(readPolicyFile);
+  if (o.policy?.length) {
+    const policies = o.policy.map(readPolicyFile);
+    const errors = baseline ? policies.flatMap((p) => policyCategoryErrors(p, baseline)) : [];
+    if (errors.length) throw new UsageError(errors.join("\n"));
+    options.policies = policies;
+  }
   return options;
 }

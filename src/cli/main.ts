@@ -254,7 +254,8 @@ function addFold(program: Command, io: Io, setExit: SetExit): void {
 /** The exit code of an error that ended a command, after its one line on stderr. */
 function exitCodeOf(e: unknown, io: Io, debug: boolean): number {
   if (e instanceof UsageError) {
-    io.stderr.write(`overask: ${e.message}\n`);
+    // Some usage errors list several problems (every error of a policy file): one line each.
+    io.stderr.write(e.message.split("\n").map((l) => `overask: ${l}\n`).join(""));
     return EXIT.USAGE;
   }
   if (e instanceof CommanderError) {

@@ -63,3 +63,33 @@ describe("--policy on the judging commands", () => {
   });
 });
 
+
+describe("policy files with mistakes", () => {
+  it("refuse a category the baseline does not have, with the nearest, for categories and exceptions alike (exit 2)", async () => {
+    const bad = join(dir, "cats.json");
+    const policy = JSON.parse(readFileSync(OWN, "utf8"));
+    policy.rules[0].categories = ["TOOOLS"];
+    policy.rules[0].exceptCategories = undefined;
+    policy.rules[1].exceptCategories = ["COMUNICATION"];
+    writeFileSync(bad, JSON.stringify(policy, null, 2));
+    const r = await cli(["check", "--policy", bad, LAMP]);
+    expect(r.code).toBe(EXIT.USAGE);
+    const lines = r.stderr.trim().split("\n");
+    expect(lines).toHaveLength(2);
+    expect(lines[0]).toMatch(/^overask: .*cats\.json:\d+: rule [\w-]+: categories names "TOOOLS", which is not a category of the baseline; did you mean "TOOLS"\?$/);
+    expect(lines[1]).toMatch(/exceptCategories names "COMUNICATION", which is not a category of the baseline; did you mean "COMMUNICATION"\?$/);
+  });
+
+  it("report every error of the file at once, and list the allowed levels", async () => {
+    const bad = join(dir, "many.json");
+    const policy = JSON.parse(readFileSync(OWN, "utf8"));
+    policy.rules[0].level = "fatal";
+    policy.rules[1].level = "severe";
+    writeFileSync(bad, JSON.stringify(policy, null, 2));
+    const r = await cli(["check", "--policy", bad, LAMP]);
+    expect(r.code).toBe(EXIT.USAGE);
+    const lines = r.stderr.trim().split("\n");
+    expect(lines).toHaveLength(2);
+    for (const l of lines) expect(l).toMatch(/level must be one of "error", "warning", "note"$/);
+  });
+});

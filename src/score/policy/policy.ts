@@ -8,9 +8,10 @@ import { createRequire } from "node:module";
 import type { ErrorObject, ValidateFunction } from "ajv";
 import type { Component, Manifest } from "../../extract/manifest/model.js";
 import { requestedPermissionNames } from "../../extract/manifest/model.js";
-import { normalizePermissionName, platformPermission } from "../../platform/permissions.js";
+import { nearestPlatformPermission, normalizePermissionName, platformPermission } from "../../platform/permissions.js";
 import { UsageError } from "../../errors.js";
-import { nearestPlatformPermission } from "../checks/unknown-permission.js";
+import type { Baseline } from "../../baseline/rates.js";
+import { nearestCategory, resolveCategory } from "../category.js";
 import type { Finding, Level } from "../types.js";
 import { POLICY_SCHEMA } from "./generated/schema.js";
 
@@ -57,7 +58,7 @@ function validate(json: unknown): ErrorObject[] {
   if (!validator) {
     // ajv is CommonJS; loaded when a policy is first read.
     const Ajv = (createRequire(import.meta.url)("ajv") as { default: new (o: object) => { compile(s: object): ValidateFunction } }).default;
-    validator = new Ajv({ allErrors: false, strict: true, strictRequired: false }).compile(POLICY_SCHEMA as object);
+    validator = new Ajv({ allErrors: true, strict: true, strictRequired: false }).compile(POLICY_SCHEMA as object);
   }
   return validator(json) ? [] : (validator.errors ?? []);
 }
@@ -69,15 +70,37 @@ function lineOf(text: string, id: string | undefined): number {
   return text.slice(0, pos).split("\n").length;
 }
 
-/** Permission names of a rule, normalized; a platform-looking name the platform does not define is refused. */
-function checkPermission(name: string, where: string): string {
+/**
+ * Permission names of a rule, normalized; a platform-looking name the platform does not define is an
+ * error, added to `errors` (every error of a file is reported at once).
+ */
+function checkPermission(name: string, where: string, errors: string[]): string {
   const full = normalizePermissionName(name);
   const platformLike = full.startsWith("android.permission.") || !full.includes(".");
   if (platformLike && !platformPermission(full.includes(".") ? full : `android.permission.${full}`)) {
     const near = nearestPlatformPermission(full.includes(".") ? full : `android.permission.${full}`);
-    throw new PolicyError(`${where}: "${name}" is not a platform permission${near.distance <= 3 ? `; did you mean ${near.name}?` : ""}`);
+    errors.push(`${where}: "${name}" is not a platform permission${near.distance <= 3 ? `; did you mean ${near.name}?` : ""}`);
   }
   return full.includes(".") ? full : `android.permission.${full}`;
+}
+
+/** One schema error in words, where it is. */
+function schemaMessage(e: ErrorObject, json: { rules?: unknown[] }, text: string, file: string): string {
+  const index = /^\/rules\/(\d+)/.exec(e.instancePath)?.[1];
+  const rule = index !== undefined ? (json.rules?.[Number(index)] as { id?: string } | undefined) : undefined;
+  const where = `${file}:${lineOf(text, rule?.id)}${rule?.id ? `: rule ${rule.id}` : ""}`;
+  const kinds = ["forbid", "riskAbove", "atypicalityAbove", "limitBelow", "justify"];
+  const missingKind = e.keyword === "required" && kinds.includes((e.params as { missingProperty: string }).missingProperty);
+  const field = e.instancePath.replace(/^\/rules\/\d+\/?/, "") || "the rule";
+  const what =
+    e.keyword === "oneOf" || missingKind
+      ? "a rule needs exactly one of forbid, riskAbove, atypicalityAbove, limitBelow, justify"
+      : e.keyword === "additionalProperties"
+        ? `unknown key "${(e.params as { additionalProperty: string }).additionalProperty}"`
+        : e.keyword === "enum"
+          ? `${field} must be one of ${((e.params as { allowedValues: unknown[] }).allowedValues ?? []).map((v) => JSON.stringify(v)).join(", ")}`
+          : `${field} ${e.message}`;
+  return `${where}: ${what}`;
 }
 
 /** Parses and checks a policy file's text; `file` names it in errors and findings. */
@@ -90,30 +113,28 @@ export function parsePolicy(text: string, file: string): Policy {
     const line = m ? text.slice(0, Number(m[1])).split("\n").length : 1;
     throw new PolicyError(`${file}:${line}: not valid JSON (${(e as Error).message.replace(/^.*?: /, "")})`);
   }
-  const errors = validate(json);
-  if (errors.length) {
-    const e = errors[0];
-    const index = /^\/rules\/(\d+)/.exec(e.instancePath)?.[1];
-    const rule = index !== undefined ? (json.rules?.[Number(index)] as { id?: string } | undefined) : undefined;
-    const where = `${file}:${lineOf(text, rule?.id)}${rule?.id ? `: rule ${rule.id}` : ""}`;
-    const kinds = ["forbid", "riskAbove", "atypicalityAbove", "limitBelow", "justify"];
-    const missingKind = e.keyword === "required" && kinds.includes((e.params as { missingProperty: string }).missingProperty);
-    const what = e.keyword === "oneOf" || missingKind ? "a rule needs exactly one of forbid, riskAbove, atypicalityAbove, limitBelow, justify" : e.keyword === "additionalProperties" ? `unknown key "${(e.params as { additionalProperty: string }).additionalProperty}"` : `${e.instancePath.replace(/^\/rules\/\d+\/?/, "") || "the rule"} ${e.message}`;
-    throw new PolicyError(`${where}: ${what}`);
+  const schemaErrors = validate(json);
+  if (schemaErrors.length) {
+    // Every error at once (a oneOf error brings its branches' errors along: the oneOf line says it all).
+    const oneOfAt = new Set(schemaErrors.filter((e) => e.keyword === "oneOf").map((e) => e.instancePath));
+    const shownErrors = schemaErrors.filter((e) => e.keyword === "oneOf" || ![...oneOfAt].some((p) => e.instancePath.startsWith(p)));
+    throw new PolicyError([...new Set(shownErrors.map((e) => schemaMessage(e, json, text, file)))].join("\n"));
   }
+  const errors: string[] = [];
   const seen = new Set<string>();
   const rules = json.rules.map((r) => {
     const line = lineOf(text, r.id);
     const where = `${file}:${line}: rule ${r.id}`;
-    if (seen.has(r.id)) throw new PolicyError(`${where}: the id is used twice`);
+    if (seen.has(r.id)) errors.push(`${where}: the id is used twice`);
     seen.add(r.id);
     const rule: PolicyRule = { ...r, file, line };
-    if (r.forbid) rule.forbid = r.forbid.map((p) => checkPermission(p, where));
-    if (r.justify) rule.justify = r.justify.map((p) => checkPermission(p, where));
-    if (r.limitBelow) rule.limitBelow = { ...r.limitBelow, permission: checkPermission(r.limitBelow.permission, where) };
-    for (const d of [r.when, r.unless]) if (d?.permission) d.permission = checkPermission(d.permission, where);
+    if (r.forbid) rule.forbid = r.forbid.map((p) => checkPermission(p, where, errors));
+    if (r.justify) rule.justify = r.justify.map((p) => checkPermission(p, where, errors));
+    if (r.limitBelow) rule.limitBelow = { ...r.limitBelow, permission: checkPermission(r.limitBelow.permission, where, errors) };
+    for (const d of [r.when, r.unless]) if (d?.permission) d.permission = checkPermission(d.permission, where, errors);
     return rule;
   });
+  if (errors.length) throw new PolicyError(errors.join("\n"));
   return { name: json.policy, ...(json.source ? { source: json.source } : {}), file, rules };
 }
 
@@ -168,4 +189,22 @@ export function evaluatePolicy(policy: Policy, s: PolicySubject): Finding[] {
     }
   }
   return out;
+}
+
+/**
+ * The categories a policy's rules name that the baseline does not have (case and aliases aside), each an
+ * error in words with the nearest category: a misspelt category would silently never fire, or never exempt.
+ */
+export function policyCategoryErrors(policy: Policy, baseline: Baseline): string[] {
+  const errors: string[] = [];
+  for (const r of policy.rules) {
+    for (const [key, list] of [["categories", r.categories], ["exceptCategories", r.exceptCategories]] as const) {
+      for (const c of list ?? []) {
+        if (resolveCategory(baseline, c).fallback !== "unknown-category") continue;
+        const near = nearestCategory(baseline, c);
+        errors.push(`${r.file}:${r.line}: rule ${r.id}: ${key} names "${c}", which is not a category of the baseline${near ? `; did you mean "${near}"?` : ""}`);
+      }
+    }
+  }
+  return errors;
 }

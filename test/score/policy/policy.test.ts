@@ -59,7 +59,7 @@ describe("policy files", () => {
 
   it("refuse what the schema does not allow, in one line with the file, line and rule", () => {
     const bad = (rules: string) => () => parsePolicy(`{\n  "policy": "p",\n  "rules": [\n    ${rules}\n  ]\n}\n`, "p.json");
-    expect(bad('{ "id": "a", "level": "loud", "message": "m", "source": "s", "forbid": ["CAMERA"] }')).toThrow(/^p\.json:4: rule a: level must be equal to one of the allowed values$/);
+    expect(bad('{ "id": "a", "level": "loud", "message": "m", "source": "s", "forbid": ["CAMERA"] }')).toThrow(/^p\.json:4: rule a: level must be one of "error", "warning", "note"$/);
     expect(bad('{ "id": "b", "level": "note", "message": "m", "source": "s" }')).toThrow(/rule b: a rule needs exactly one of forbid/);
     expect(bad('{ "id": "c", "level": "note", "message": "m", "source": "s", "forbid": ["CAMERA"], "colour": "red" }')).toThrow(/rule c: unknown key "colour"/);
     expect(() => parsePolicy("{ nope", "q.json")).toThrow(/^q\.json:1: not valid JSON/);
