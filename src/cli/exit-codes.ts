@@ -4,7 +4,7 @@
  */
 export const EXIT_CODES = [
   { name: "OK", code: 0, help: "done", meaning: "every input was read and reported" },
-  { name: "GATE", code: 1, help: "a --fail-on or --max-risk gate was hit (check, sweep)", meaning: "`check` or `sweep` found something at or above `--fail-on`, or a risk above `--max-risk` (and every input was read)" },
+  { name: "GATE", code: 1, help: "a --fail-on or --max-risk gate was hit (check, sweep, delta)", meaning: "`check` or `sweep` found something at or above `--fail-on`, or a risk above `--max-risk` (and every input was read); `delta`: the update newly brings something at or above `--fail-on`, or its risk is above `--max-risk`" },
   { name: "USAGE", code: 2, help: "wrong command line", meaning: "the command line is wrong (unknown option or command, missing argument, a category the baseline does not have, a sweep source that is no app, folder or list)" },
   {
     name: "INPUT",

@@ -202,7 +202,7 @@ function addTrim(program: Command, io: Io, setExit: SetExit): void {
 }
 
 function addDelta(program: Command, io: Io, setExit: SetExit): void {
-  withJudgingOptions(program.command("delta"))
+  withGates(withJudgingOptions(program.command("delta")), "the update newly brings")
     .addOption(formatOption(["text", "json"]))
     .description("for reviewers of an update: what changed between two versions of an app")
     .argument("<old>", "the earlier APK or manifest")

@@ -1,6 +1,6 @@
 /** Formatters for `overask trim` and `overask delta`. */
 import { codeStatusText, evidenceLabel } from "../score/code-evidence.js";
-import type { Delta } from "../score/delta.js";
+import type { Delta, Regression } from "../score/delta.js";
 import { snippetFor, type TrimPlan } from "../score/trim/plan.js";
 import { TOOLS_NS } from "../extract/xml-tree.js";
 import { TOOL_VERSION } from "../version.js";
@@ -70,6 +70,7 @@ export function trimToText(plan: TrimPlan, file: string, caution: string | undef
   if (plan.typos.length) {
     out.push("", s.bold("Fix, do not remove"));
     for (const t of plan.typos) out.push(...wrap(`  ${t.permission} → ${t.nearest} (a likely typo: the app does not get the permission it meant)`, 80, 4));
+    out.push(...wrap("  --write leaves these names as they are: correcting one grants the app a permission it does not get today, a change only its developer can decide on; fix them by hand where the app needs them.", 80, 4).map((l) => s.dim(l)));
   }
   if (plan.candidates.length === 0 && plan.typos.length === 0) out.push("", "  nothing to trim: no requested permission is uncommon, ungrantable or without effect");
   return `${out.join("\n")}\n`;
@@ -79,17 +80,33 @@ export function trimToJson(plan: TrimPlan, file: string): string {
   return `${JSON.stringify({ tool: "overask", version: TOOL_VERSION, schemaVersion: 1, file, ...plan, kept: plan.kept.map((k) => ({ ...k, why: k.reasons.map(neededText).join("; ") })), candidates: plan.candidates.map((c) => ({ ...c, reasons: c.reasons.map((r) => ({ ...r, message: reasonText(c.permission, r) })), safe: safeText(c.safe), safeBecause: c.safe, snippet: snippetFor(c) })) }, null, 2)}\n`;
 }
 
+/** A regression of an update, in words. */
+export function regressionText(r: Regression): string {
+  switch (r.kind) {
+    case "target-downgrade":
+      return `targetSdk lowered from ${r.before} to ${r.after}: the platform applies the older, looser behaviour again (below 23, dangerous permissions are granted at install without a prompt)`;
+    case "debuggable-on":
+      return 'android:debuggable="true" in this version: a debugger can attach to it and run code with its permissions';
+    case "cleartext-on":
+      return "cleartext (unencrypted) network traffic turned on in this version";
+  }
+}
+
 export function deltaToText(d: Delta, files: [string, string], caution: string | undefined, s: Style = PLAIN): string {
   const v = (x: Delta["before"]) => [x.versionName, x.versionCode !== undefined ? `(code ${x.versionCode})` : undefined].filter(Boolean).join(" ") || "no version";
   const out: string[] = [];
   out.push(s.bold(d.samePackage ? `${d.after.package}: ${v(d.before)} → ${v(d.after)}` : `${d.before.package} → ${d.after.package} (different packages)`));
   out.push(...wrap(`  ${files[0]} → ${files[1]}`, 80, 4));
-  if (d.before.targetSdk !== d.after.targetSdk) out.push(`  targetSdk ${d.before.targetSdk ?? "—"} → ${d.after.targetSdk ?? "—"}`);
+  if (d.before.targetSdk !== d.after.targetSdk) out.push(`  targetSdk ${d.before.targetSdk ?? "—"} → ${d.after.targetSdk ?? "—"}${(d.after.targetSdk ?? 0) < (d.before.targetSdk ?? 0) ? s.warn("  (lower: see below)") : ""}`);
   if (d.before.risk !== undefined && d.after.risk !== undefined) {
     out.push(`  risk ${pct(d.before.risk)} (${d.before.band}) → ${pct(d.after.risk)} (${d.after.band}); base rate ${pct(d.after.baseRate ?? 0)} of the labeled corpus`);
     if (d.before.riskAtPrevalence !== undefined && d.after.riskAtPrevalence !== undefined) out.push(`  at your prevalence: ${pct(d.before.riskAtPrevalence)} → ${pct(d.after.riskAtPrevalence)}`);
     if (d.before.atypicality !== undefined && d.after.atypicality !== undefined) out.push(`  atypicality percentile ${Math.floor(d.before.atypicality)} → ${Math.floor(d.after.atypicality)}`);
     if (caution) out.push(...wrap(`  ${caution}`, 80, 2).map((l) => s.dim(l)));
+  }
+  if (d.regressions.length) {
+    out.push("", s.bold(`Changes for the worse (${d.regressions.length})`));
+    for (const r of d.regressions) out.push(...wrap(`  ${verdict(r.level, r.kind, s)} ${regressionText(r)}`, 80, 4));
   }
   out.push("", s.bold(`Permissions added (${d.added.length})`));
   const describe = (c: Delta["added"][number]) => [c.base, ...(c.flags ?? []), c.restricted ? `${c.restricted}-restricted` : undefined].filter(Boolean).join(", ");
@@ -120,5 +137,5 @@ export function deltaToText(d: Delta, files: [string, string], caution: string |
 }
 
 export function deltaToJson(d: Delta, files: [string, string], caution: string | undefined): string {
-  return `${JSON.stringify({ tool: "overask", version: TOOL_VERSION, schemaVersion: 1, files, caution, ...d, newlyUncommon: d.newlyUncommon.map((f) => ({ ...f, message: wordFinding(f, codeLookup(d.codeNow)) })), newlyBroken: d.newlyBroken.map((f) => ({ ...f, message: messageOf(f) })) }, null, 2)}\n`;
+  return `${JSON.stringify({ tool: "overask", version: TOOL_VERSION, schemaVersion: 1, files, caution, ...d, newlyUncommon: d.newlyUncommon.map((f) => ({ ...f, message: wordFinding(f, codeLookup(d.codeNow)) })), newlyBroken: d.newlyBroken.map((f) => ({ ...f, message: messageOf(f) })), regressions: d.regressions.map((r) => ({ ...r, message: regressionText(r) })) }, null, 2)}\n`;
 }

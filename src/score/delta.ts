@@ -5,7 +5,8 @@ import type { CodeEvidence, EvidenceItem, PermissionEvidence } from "./code-evid
 import { requestedPermissionNames } from "../extract/manifest/model.js";
 import type { CheckResult } from "./judge.js";
 import { checkIdsTagged } from "./registry.js";
-import type { Finding } from "./types.js";
+import type { Finding, Level } from "./types.js";
+import { worstOf } from "./gates.js";
 
 export interface AppVersion {
   package: string;
@@ -57,6 +58,19 @@ export interface Delta {
   newlyExported: { kind: string; name: string }[];
   /** What the code shows that changed, when both versions' code was read (docs/code-evidence.md). */
   code?: CodeDelta;
+  /** Changes a reviewer of an update should weigh: a lower target, debugging or cleartext traffic turned on. */
+  regressions: Regression[];
+}
+
+/** A change for the worse between two versions, with the level a gate weighs it at. */
+export type Regression =
+  | { kind: "target-downgrade"; level: Level; before: number; after: number }
+  | { kind: "debuggable-on"; level: Level }
+  | { kind: "cleartext-on"; level: Level };
+
+/** The most severe level among what an update newly brings (what `delta --fail-on` looks at). */
+export function deltaWorst(d: Delta): Level | undefined {
+  return worstOf([...d.newlyUncommon, ...d.newlyBroken, ...d.specialAccess.added, ...d.regressions].map((f) => f.level));
 }
 
 export interface CodeDelta {
@@ -122,6 +136,13 @@ export function compareVersions(before: CheckResult, after: CheckResult): Delta 
   const newSpecial = new Set(special(after).map(key));
   const wasExported = new Set(before.manifest.components.filter((c) => c.effectiveExported).map((c) => `${c.kind} ${c.name}`));
   const newlyUncommon = after.findings.filter((f) => RATE_CHECKS.has(f.checkId) && !oldRate.has(f.subject));
+  const regressions: Regression[] = [];
+  const [t0, t1] = [before.manifest.targetSdk ?? before.manifest.minSdk ?? 1, after.manifest.targetSdk ?? after.manifest.minSdk ?? 1];
+  // A lower target turns off behaviour changes the old version lived with (runtime permissions below 23,
+  // scoped storage below 30 …): an update should never need it.
+  if (t1 < t0) regressions.push({ kind: "target-downgrade", level: "warning", before: t0, after: t1 });
+  if (after.manifest.application.debuggable === true && before.manifest.application.debuggable !== true) regressions.push({ kind: "debuggable-on", level: "warning" });
+  if (after.manifest.application.usesCleartextTraffic === true && before.manifest.application.usesCleartextTraffic !== true) regressions.push({ kind: "cleartext-on", level: "warning" });
   return {
     before: version(before),
     after: version(after),
@@ -129,6 +150,7 @@ export function compareVersions(before: CheckResult, after: CheckResult): Delta 
     added: [...now].filter((p) => !old.has(p)).sort().map((p) => change(after, p)),
     removed: [...old].filter((p) => !now.has(p)).sort().map((p) => change(before, p)),
     newlyUncommon,
+    regressions,
     ...(after.code?.read.length && newlyUncommon.length ? { codeNow: after.code.permissions.filter((e) => newlyUncommon.some((f) => f.subject === e.permission)) } : {}),
     specialAccess: {
       added: special(after).filter((f) => !oldSpecial.has(key(f))),

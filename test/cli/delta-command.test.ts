@@ -17,3 +17,21 @@ describe("overask delta", () => {
     expect(d.added.map((a: { permission: string }) => a.permission)).toEqual(["android.permission.ACCESS_BACKGROUND_LOCATION", "android.permission.READ_CONTACTS"]);
   });
 });
+
+describe("overask delta for a reviewer of an update", () => {
+  it("names a lower target, debugging and cleartext turned on, and gates on them with --fail-on", async () => {
+    // Two invented versions of one app: the update lowers its target and turns on debugging and cleartext.
+    const older = join(dir, "older.xml");
+    const newer = join(dir, "newer.xml");
+    const m = (target: number, app: string) => `<manifest xmlns:android="http://schemas.android.com/apk/res/android" package="org.example.update" android:versionCode="${target}"><uses-sdk android:minSdkVersion="21" android:targetSdkVersion="${target}"/><uses-permission android:name="android.permission.INTERNET"/><application ${app}/></manifest>`;
+    writeFileSync(older, m(35, ""));
+    writeFileSync(newer, m(22, 'android:debuggable="true" android:usesCleartextTraffic="true"'));
+    const json = JSON.parse((await cli(["delta", "-f", "json", older, newer])).stdout);
+    expect(json.regressions.map((r: { kind: string }) => r.kind)).toEqual(["target-downgrade", "debuggable-on", "cleartext-on"]);
+    const text = (await cli(["delta", older, newer])).stdout;
+    expect(text).toMatch(/Changes for the worse \(3\)/);
+    expect(text.replace(/\s+/g, " ")).toContain("targetSdk lowered from 35 to 22");
+    expect((await cli(["delta", "--fail-on", "warning", older, newer])).code).toBe(EXIT.GATE);
+    expect((await cli(["delta", "--fail-on", "warning", older, older])).code).toBe(EXIT.OK);
+  });
+});

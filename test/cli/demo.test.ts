@@ -3,7 +3,7 @@
  * was taken from the demo before the move to the ops layer, and a change to it must be deliberate
  * (update the snapshot in the same commit and say why). Changes so far: the platform-facts work added the
  * debuggable and special-access findings the demo app earns (android:debuggable="true", SYSTEM_ALERT_WINDOW)
- * and corrected the wording of role permissions.
+ * and corrected the wording of role permissions; trim says why --write leaves likely typos alone.
  */
 import { execFileSync } from "node:child_process";
 import { readFileSync } from "node:fs";

@@ -36,3 +36,13 @@ describe("delta in words", () => {
     for (const f of json.newlyUncommon) expect(f.message).toMatch(/ of \d+ /);
   });
 });
+
+describe("trim's likely typos", () => {
+  it("are listed to fix, with why --write leaves them alone", async () => {
+    const { trim } = await import("../../src/ops/trim.js");
+    const { plan } = trim(defaultJudge, `${FIXTURES}apps/pocketlamp/AndroidManifest.xml`, { judge: { category: "TOOLS" } });
+    expect(plan.typos.length).toBeGreaterThan(0);
+    const text = trimToText(plan, "AndroidManifest.xml", undefined).replace(/\s+/g, " ");
+    expect(text).toContain("--write leaves these names as they are: correcting one grants the app a permission it does not get today");
+  });
+});
