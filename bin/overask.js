@@ -13,3 +13,6 @@ for (const stream of [process.stdout, process.stderr]) {
 }
 
 process.exitCode = await run(process.argv.slice(2));
+// A worker that let go of an unreachable Redis (exit 6) may still hold its client's reconnect timers: it
+// ends here rather than wait on them.
+if (process.exitCode === 6) process.exit(6);

@@ -15,6 +15,7 @@ export const EXIT_CODES = [
   },
   { name: "INTERNAL", code: 4, help: "internal error (rerun with --debug)", meaning: "an internal error in overask; rerun with `--debug` for the stack trace and report it" },
   { name: "OUTPUT", code: 5, help: "an output could not be written", meaning: "an output could not be written (missing or read-only folder, full disk); an existing file is left as it was" },
+  { name: "STOPPED", code: 6, help: "work: stopped before a clean close (a second signal, or Redis unreachable past the grace period)", meaning: "`work` was stopped without finishing the jobs in hand cleanly: a second SIGINT/SIGTERM, or a first one whose grace period (`--grace`) ran out, as when Redis cannot be reached; those jobs return to the queue after the stall check and run on another worker" },
 ] as const;
 
 type ExitName = (typeof EXIT_CODES)[number]["name"];

@@ -178,6 +178,7 @@ function addWork(program: Command, io: Io, setExit: SetExit): void {
     .option("-j, --jobs <n>", "worker threads (default: the number of cores)", wholeNumber(1))
     .option("-b, --baseline <file>", "baseline file: the same as the producer's (default: the bundled baselines/default.json)")
     .option("--drain", "stop once the queue has nothing left to run")
+    .option("--grace <seconds>", "on SIGINT/SIGTERM, wait this long for the jobs in hand and a clean close, then exit anyway (default 8)", nonNegative)
     .action(async (url: string, o: import("./work-command.js").WorkCliOptions) => {
       const { workCommand } = await import("./work-command.js");
       setExit(await workCommand(url, o, io));

@@ -26,10 +26,33 @@ export interface ServeOptions {
   onReady?: () => void;
   /** Stop early (a signal): finish the jobs in hand, then return. */
   signal?: AbortSignal;
+  /**
+   * How long a stop may wait for the jobs in hand and a clean close (default GRACE_MS): past it the worker
+   * lets go of the connection and returns, even when Redis cannot be reached. Jobs it held return to the
+   * queue after the stall check and run on another worker.
+   */
+  graceMs?: number;
 }
 
 export interface ServeResult {
   jobs: number;
+  /** The grace period ran out before a clean close (Redis unreachable, or jobs that would not finish). */
+  forced?: boolean;
+}
+
+/** Default grace of a stop: well under an orchestrator's usual wait (Kubernetes: 30 s) before it kills. */
+export const GRACE_MS = 8000;
+
+/** Resolves true when `p` settles within `ms`, false otherwise (the timer never keeps the process alive). */
+function within(p: Promise<unknown>, ms: number): Promise<boolean> {
+  return new Promise((resolve) => {
+    const t = setTimeout(() => resolve(false), ms);
+    t.unref();
+    p.then(
+      () => (clearTimeout(t), resolve(true)),
+      () => (clearTimeout(t), resolve(true)),
+    );
+  });
 }
 
 /** A mismatch between this worker's baseline and the sweep's: the worker stops rather than judge differently. */
@@ -102,10 +125,11 @@ export async function serveQueue(o: ServeOptions): Promise<ServeResult> {
       worker.on("closing", () => clearInterval(timer));
     }
   });
-  await worker.close();
-  await running.catch(() => {});
-  await queue?.close().catch(() => {});
+  // A clean close waits for the jobs in hand and for Redis; with Redis gone it would wait for ever.
+  const grace = o.graceMs ?? GRACE_MS;
+  const clean = await within(Promise.all([worker.close(), running.catch(() => {}), queue?.close().catch(() => {})]), grace);
+  if (!clean) void worker.close(true).catch(() => {});
   client.disconnect();
   if (stopWith) throw stopWith;
-  return { jobs };
+  return { jobs, ...(clean ? {} : { forced: true }) };
 }

@@ -9,6 +9,6 @@ parentPort!.on("message", (m: string) => {
   if (m === "stop") stop.abort();
 });
 serveQueue({ ...o, signal: stop.signal, onReady: () => parentPort!.postMessage({ ready: true }) }).then(
-  (r) => parentPort!.postMessage({ done: r.jobs }),
+  (r) => parentPort!.postMessage({ done: r.jobs, ...(r.forced ? { forced: true } : {}) }),
   (e: unknown) => parentPort!.postMessage({ error: e instanceof OveraskError ? { name: e.name, message: e.message, file: e.file } : { name: "Error", message: e instanceof Error ? e.message : String(e) } }),
 );

@@ -7,14 +7,14 @@ import { join } from "node:path";
 import { Worker } from "node:worker_threads";
 import { InputError, QueueError } from "../../errors.js";
 import { packageRoot } from "../package-root.js";
-import { serveQueue, type ServeOptions, type ServeResult } from "./serve.js";
+import { GRACE_MS, serveQueue, type ServeOptions, type ServeResult } from "./serve.js";
 
 export interface WorkOptions extends ServeOptions {
   /** Threads, each with its own worker and connection. */
   jobs: number;
 }
 
-type ThreadMessage = { ready: true } | { done: number } | { error: { name: string; message: string; file?: string } };
+type ThreadMessage = { ready: true } | { done: number; forced?: boolean } | { error: { name: string; message: string; file?: string } };
 
 export async function work(o: WorkOptions): Promise<ServeResult> {
   const { jobs, ...serve } = o;
@@ -26,8 +26,20 @@ export async function work(o: WorkOptions): Promise<ServeResult> {
   const results = await Promise.all(
     Array.from({ length: jobs }, () => {
       const t = new Worker(file, { workerData: data });
-      signal?.addEventListener("abort", () => t.postMessage("stop"), { once: true });
       return new Promise<ThreadMessage>((resolve, reject) => {
+        signal?.addEventListener(
+          "abort",
+          () => {
+            t.postMessage("stop");
+            // A thread that cannot close within its grace (and a little more) is ended from here.
+            const kill = setTimeout(() => {
+              resolve({ done: 0, forced: true });
+              void t.terminate();
+            }, (serve.graceMs ?? GRACE_MS) + 1000);
+            kill.unref();
+          },
+          { once: true },
+        );
         t.on("message", (m: ThreadMessage) => {
           if ("ready" in m) {
             if (++ready === jobs) onReady?.();
@@ -42,5 +54,6 @@ export async function work(o: WorkOptions): Promise<ServeResult> {
   );
   const failure = results.find((r): r is Extract<ThreadMessage, { error: unknown }> => "error" in r);
   if (failure) throw failure.error.name === "QueueError" ? new QueueError(failure.error.message, { file: failure.error.file ?? o.address.shown }) : new InputError(failure.error.message, { file: failure.error.file ?? o.address.shown });
-  return { jobs: results.reduce((n, r) => n + ("done" in r ? r.done : 0), 0) };
+  const forced = results.some((r) => "done" in r && r.forced);
+  return { jobs: results.reduce((n, r) => n + ("done" in r ? r.done : 0), 0), ...(forced ? { forced: true } : {}) };
 }

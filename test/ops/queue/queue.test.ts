@@ -203,3 +203,40 @@ describe.runIf(hasRedis)("sweep --queue on a real Redis with BullMQ", () => {
     expect(w.stderr).toMatch(/cannot reach the queue's Redis: connection refused/);
   });
 });
+
+describe.runIf(hasRedis)("overask work when told to stop", () => {
+  it("exits within its grace period on SIGTERM while Redis is unreachable, and at once on a second signal", async () => {
+    // A Redis of its own, killed under the workers: the clean close (acknowledging jobs, closing the
+    // connection) can never finish, so only the grace period ends the wait.
+    const own = await startRedis();
+    const url = own.url("stopping");
+    const a = startWorker(url, ["--grace", "2"]);
+    const b = startWorker(url, ["--grace", "30"]);
+    const ready = (w: typeof a) =>
+      new Promise<void>((resolve) => {
+        const t = setInterval(() => {
+          if (/taking jobs from/.test(w.stderr())) {
+            clearInterval(t);
+            resolve();
+          }
+        }, 20);
+      });
+    await Promise.all([ready(a), ready(b)]);
+    await own.stop(); // Redis gone
+    const t0 = Date.now();
+    a.proc.kill("SIGTERM");
+    expect(await a.exited).toBe(EXIT.STOPPED);
+    const waited = Date.now() - t0;
+    console.log(`worker exited ${waited} ms after SIGTERM with Redis down (grace 2 s)`);
+    expect(waited).toBeLessThan(10_000); // the issue's bound: within 10 s
+    expect(a.stderr()).toMatch(/not closed cleanly within 2 s \(is Redis reachable\?\)/);
+    // B has a long grace: a second signal ends it at once.
+    b.proc.kill("SIGTERM");
+    await new Promise((r) => setTimeout(r, 200));
+    const t1 = Date.now();
+    b.proc.kill("SIGTERM");
+    expect(await b.exited).toBe(EXIT.STOPPED);
+    expect(Date.now() - t1).toBeLessThan(5_000);
+    expect(b.stderr()).toMatch(/stopped at once \(second signal\)/);
+  }, 60_000);
+});
