@@ -23,6 +23,8 @@ export interface AppRow extends RowKey {
   versionCode?: number;
   category?: string;
   fallback?: string;
+  /** The category the app asked for (an index, `-c`, its manifest) when it fell back to the pooled baseline. */
+  requestedCategory?: string;
   risk?: number;
   band?: string;
   /** The risk at the user's prevalence (`--prevalence`). */
@@ -104,6 +106,7 @@ export function rowOf(key: RowKey, r: CheckResult): AppRow {
     ...(m.versionCode !== undefined ? { versionCode: m.versionCode } : {}),
     ...(r.category.category ? { category: r.category.category } : {}),
     ...(r.category.fallback ? { fallback: r.category.fallback } : {}),
+    ...(r.category.fallback && r.category.requested ? { requestedCategory: r.category.requested } : {}),
     counts,
     findings: r.findings.map((f) => rowFinding(f, r.code)),
     permissions: requestedPermissionNames(m).sort(),

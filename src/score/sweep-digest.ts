@@ -6,6 +6,7 @@
  * could not be read — the page says where the full results are.
  */
 import type { Baseline } from "../baseline/rates.js";
+import { wilsonInterval } from "../baseline/stats/wilson.js";
 import type { Heatmap } from "./heatmap-types.js";
 import { POOLED_COLUMN } from "./heatmap.js";
 import { checkIdsTagged } from "./registry.js";
@@ -73,6 +74,8 @@ export class SweepDigester {
   private readonly byFindings = new TopN(EMBED_TOP);
   private readonly failedRows: AppRow[] = [];
   private readonly flagged = new Map<string, number>();
+  /** permission → category → apps flagged for it there. */
+  private readonly flaggedByCategory = new Map<string, Map<string, number>>();
   private readonly rateChecks = checkIdsTagged("rate");
 
   /** First pass: every row once. */
@@ -94,7 +97,15 @@ export class SweepDigester {
       d.byCategory[c] = (d.byCategory[c] ?? 0) + 1;
     }
     for (const id of new Set((r.findings ?? []).map((f) => f.checkId))) d.byCheck[id] = (d.byCheck[id] ?? 0) + 1;
-    for (const f of r.findings ?? []) if (this.rateChecks.has(f.checkId)) this.flagged.set(f.subject, (this.flagged.get(f.subject) ?? 0) + 1);
+    for (const f of r.findings ?? []) {
+      // A rate finding may be folded under a more severe one on the same permission (`also`): it counts too.
+      if (!this.rateChecks.has(f.checkId) && !(f.also ?? []).some((a) => this.rateChecks.has(a.checkId))) continue;
+      this.flagged.set(f.subject, (this.flagged.get(f.subject) ?? 0) + 1);
+      const cat = r.category ?? POOLED_COLUMN;
+      const byCat = this.flaggedByCategory.get(f.subject) ?? new Map<string, number>();
+      byCat.set(cat, (byCat.get(cat) ?? 0) + 1);
+      this.flaggedByCategory.set(f.subject, byCat);
+    }
     if (r.status !== "scored") return;
     const row = slim(r);
     if (!this.overflow) {
@@ -135,7 +146,7 @@ export class SweepDigester {
         const n = this.d.byCategory[c] ?? 0;
         const k = shares?.get(p)?.get(c) ?? 0;
         const b = baseline.rate(c === POOLED_COLUMN ? undefined : c, p);
-        return { sweep: n ? k / n : 0, sweepN: n, baseline: b.n ? b.k / b.n : 0, baselineN: b.n };
+        return { sweep: n ? k / n : 0, sweepK: k, sweepN: n, sweepLower: n ? wilsonInterval(k, n).lower : 0, flagged: this.flaggedByCategory.get(p)?.get(c) ?? 0, baseline: b.n ? b.k / b.n : 0, baselineN: b.n };
       }),
     );
     return { ...this.d, embedded, complete, heatmap: { permissions, categories, cells, flaggedCounts: permissions.map((p) => this.flagged.get(p) ?? 0) } };

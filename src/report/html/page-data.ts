@@ -13,6 +13,7 @@ export interface PageRow {
   package: string | null;
   category: string | null;
   fallback: string | null;
+  requestedCategory: string | null;
   risk: number | null;
   band: string | null;
   atypicality: number | null;

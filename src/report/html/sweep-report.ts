@@ -49,6 +49,7 @@ export function sweepToHtml(input: SweepReportInput): string {
       package: r.package ?? null,
       category: r.category ?? null,
       fallback: r.fallback ?? null,
+      requestedCategory: r.requestedCategory ?? null,
       risk: r.risk ?? null,
       band: r.band ?? null,
       atypicality: r.atypicality ?? null,
@@ -91,6 +92,7 @@ export function sweepToHtml(input: SweepReportInput): string {
     <th data-key="risk" aria-sort="descending" class="num">Risk</th>
     <th data-key="band" aria-sort="none">Band</th>
     <th data-key="atypicality" aria-sort="none" class="num" title="percentile among the baseline's apps of the category; no labels involved">Atypical</th>
+    <th data-key="errors" aria-sort="none" class="num" title="findings of level error (an app that will not install, …); sorted by errors, then warnings, then notes">Errors</th>
     <th data-key="warnings" aria-sort="none" class="num">Warnings</th>
     <th data-key="notes" aria-sort="none" class="num">Notes</th>
     <th data-key="code" aria-sort="none" class="num" title="requested permissions the app's code was not seen to use (code evidence)">Not seen in code</th>
@@ -100,7 +102,7 @@ export function sweepToHtml(input: SweepReportInput): string {
 <p class="legend noprint">Click a row for its findings and for what removing a permission would do to its risk.</p>
 
 <h2>Permissions flagged most, by category</h2>
-<p class="legend">Each cell: share of swept apps of the category requesting the permission, and below it the share in the baseline. Darker: requested more often than the baseline would suggest.</p>
+<p class="legend">Each cell: share of swept apps of the category requesting the permission, how many of how many (and how many were flagged), and the share in the baseline. Darker: requested more often than the baseline would suggest, weighed by support (the lower end of the 95% interval of the swept share), so a cell of one app is never dark.</p>
 <div id="heatmap"></div>
 
 <script type="application/json" id="data">${safeJson(data)}</script>

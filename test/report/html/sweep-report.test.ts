@@ -66,7 +66,7 @@ describe.runIf(hasChromium)("the sweep's HTML report in chromium", () => {
     await page.selectOption("#f-check", "");
     await page.selectOption("#f-code", "not-seen");
     expect(await page.textContent("#shown")).toBe(`1 of ${byRiskDesc.length} shown`);
-    expect(await page.textContent("#apps tbody tr.app td:nth-child(8)")).toBe("2");
+    expect(await page.textContent("#apps tbody tr.app td:nth-child(9)")).toBe("2"); // the "not seen in code" column
     await page.click("#apps tbody tr.app");
     expect(await page.textContent("#apps tbody tr.details")).toMatch(/Code evidence — Used in code: READ_CONTACTS, READ_SMS; not seen in code: CAMERA, POST_NOTIFICATIONS; no map covers: ACCESS_BACKGROUND_LOCATION\./);
     await page.selectOption("#f-code", "none");

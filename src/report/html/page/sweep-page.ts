@@ -47,10 +47,11 @@ function drawHistogram(): void {
   const bins: Record<Band, number>[] = data.summary.histogram.map((b) => ({ low: b.low ?? 0, elevated: b.elevated ?? 0, high: b.high ?? 0 }));
   const totals = bins.map((b) => b.low + b.elevated + b.high);
   const max = Math.max(...totals, 1);
-  const W = 740, H = 200, L = 40, R = 30, B = 28, bw = (W - L - R) / 20;
+  // As wide as the page (1,150 units across its 1,200-pixel column), so the bars are not squeezed into half of it.
+  const W = 1150, H = 220, L = 40, R = 30, B = 28, bw = (W - L - R) / 20;
   const cut = data.cutPoints || {};
   const colour: Record<Band, string> = { low: "#4f7f5a", elevated: "#c28a1e", high: "#b23a3a" };
-  let svg = `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" width="100%" style="max-width:${W}px">`;
+  let svg = `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" width="100%">`;
   for (let i = 0; i < 20; i++) {
     let y = H - B;
     const x = L + i * bw;
@@ -112,11 +113,20 @@ function sortValue(r: PageRow, key: string): string | number {
     case "risk": return r.risk == null ? -1 : r.risk;
     case "band": return ({ high: 3, elevated: 2, low: 1 } as Record<string, number>)[r.band ?? ""] || 0;
     case "atypicality": return r.atypicality == null ? -1 : r.atypicality;
-    case "warnings": return r.counts ? r.counts.warning + 100 * r.counts.error : -1;
+    case "errors": return r.counts ? r.counts.error * 1e6 + r.counts.warning * 1e3 + r.counts.note : -1;
+    case "warnings": return r.counts ? r.counts.warning * 1e3 + r.counts.note : -1;
     case "notes": return r.counts ? r.counts.note : -1;
     case "code": return r.code ? r.code.notSeen.length : -1;
     default: return 0;
   }
+}
+
+/** The category an app was judged against, or the one it asked for and why it fell back to all apps pooled. */
+function categoryCell(r: PageRow): string {
+  if (r.status === "failed") return "";
+  if (r.category) return r.category;
+  const why = r.fallback === "unknown-category" ? "not in the baseline" : r.fallback === "below-min-support" ? "too few apps in the baseline" : "none given or declared";
+  return r.requestedCategory ? `${r.requestedCategory} (pooled: ${why})` : `pooled (${why})`;
 }
 
 const tbody = document.querySelector("#apps tbody")!;
@@ -143,17 +153,18 @@ function render(): void {
     app.appendChild(el("div", null, r.package || "(unreadable)"));
     app.appendChild(el("div", { class: "legend" }, r.id));
     tr.appendChild(app);
-    tr.appendChild(el("td", null, r.category || (r.status === "failed" ? "" : "pooled")));
+    tr.appendChild(el("td", null, categoryCell(r)));
     tr.appendChild(el("td", { class: "num" }, pctOrDash(r.risk)));
     const b = el("td");
     b.appendChild(el("span", { class: `pill ${r.status === "failed" ? "failed" : r.band || ""}` }, r.status === "failed" ? "failed" : r.band || "—"));
     tr.appendChild(b);
     tr.appendChild(el("td", { class: "num" }, r.atypicality == null ? "—" : `${Math.floor(r.atypicality)}`));
-    tr.appendChild(el("td", { class: "num" }, r.counts ? String(r.counts.warning + r.counts.error) : "—"));
+    tr.appendChild(el("td", { class: `num${r.counts?.error ? " lvl-error" : ""}` }, r.counts ? String(r.counts.error) : "—"));
+    tr.appendChild(el("td", { class: "num" }, r.counts ? String(r.counts.warning) : "—"));
     tr.appendChild(el("td", { class: "num" }, r.counts ? String(r.counts.note) : "—"));
     tr.appendChild(el("td", { class: "num", title: r.code ? "" : "code not read" }, r.code ? String(r.code.notSeen.length) : "—"));
     const details = el("tr", { class: "details", hidden: "" });
-    const td = el("td", { colspan: "8" });
+    const td = el("td", { colspan: "9" });
     if (r.error) td.appendChild(el("div", { class: "lvl-error" }, `Could not be read: ${r.error}`));
     if (r.findings.length) {
       const ul = el("ul");
@@ -216,7 +227,7 @@ function drawHeatmap(): void {
   }
   const t = el("table", { class: "heat" });
   const head = el("tr");
-  head.appendChild(el("th", null, "Permission (times flagged)"));
+  head.appendChild(el("th", null, "Permission (apps flagged)"));
   for (const c of h.categories) head.appendChild(el("th", null, c));
   const thead = el("thead");
   thead.appendChild(head);
@@ -226,11 +237,14 @@ function drawHeatmap(): void {
     const tr = el("tr");
     tr.appendChild(el("th", null, `${short(p)} (${h.flaggedCounts[i]})`));
     for (const c of h.cells[i]) {
-      const excess = Math.max(0, Math.min(1, (c.sweep - c.baseline) * 4));
-      const td = el("td", { title: `swept: ${pctOrDash(c.sweep)} of ${c.sweepN} · baseline: ${pctOrDash(c.baseline)} of ${c.baselineN}` });
+      // Shaded by how far even the lower end of the swept share's 95% interval lies above the baseline's
+      // share: one app of one is weak evidence (lower end about 21%), many apps are strong.
+      const excess = Math.max(0, Math.min(1, (c.sweepLower - c.baseline) * 4));
+      const td = el("td", { title: `swept: ${c.sweepK} of ${c.sweepN} (${pctOrDash(c.sweep)}; 95% interval from ${pctOrDash(c.sweepLower)}) · flagged: ${c.flagged} · baseline: ${pctOrDash(c.baseline)} of ${c.baselineN}` });
       td.style.background = `rgba(178, 58, 58, ${(0.08 + 0.6 * excess).toFixed(2)})`;
-      td.appendChild(el("div", null, pctOrDash(c.sweep)));
-      td.appendChild(el("div", { class: "legend" }, pctOrDash(c.baseline)));
+      td.appendChild(el("div", null, `${pctOrDash(c.sweep)}`));
+      td.appendChild(el("div", { class: "legend" }, `${c.sweepK} of ${c.sweepN}${c.flagged ? `, ${c.flagged} flagged` : ""}`));
+      td.appendChild(el("div", { class: "legend" }, `baseline ${pctOrDash(c.baseline)}`));
       tr.appendChild(td);
     }
     body.appendChild(tr);
