@@ -60,7 +60,7 @@ export function categoryText(c: CategoryChoice): string {
 }
 
 /** A contribution in words: a permission's whole effect, or a category term. */
-function contributionText(c: RiskEstimate["contributions"][number], category: string | undefined): string {
+export function contributionText(c: RiskEstimate["contributions"][number], category: string | undefined): string {
   const lo = `+${c.logOdds.toFixed(2)} log-odds`;
   if (c.kind === "permission") return `${short(c.name)}  ${lo}`;
   const group = category ?? "all categories";

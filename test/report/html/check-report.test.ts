@@ -47,16 +47,23 @@ describe.runIf(hasChromium)("the check report in chromium", () => {
     expect(await lamp.locator("table.perms tbody tr").count()).toBe(14);
     expect(await lamp.locator("tr:has-text('READ_SMS') .bar.uncommon").count()).toBe(1);
     expect(await page.locator("section.app").nth(1).locator("td:has-text('declared by this app')").count()).toBe(1);
+    // The risk's breakdown, and for each requested permission who grants it and its protection level.
+    expect(await lamp.locator(".risk .breakdown").first().textContent()).toMatch(/Raised most by/);
+    expect(await lamp.locator("table.perms tbody tr").filter({ hasText: "READ_SMS" }).textContent()).toMatch(/runtime prompt\s*dangerous/);
+    expect(await lamp.locator("table.perms tbody tr").filter({ hasText: "SYSTEM_ALERT_WINDOW" }).textContent()).toMatch(/special access, by hand/);
+    await page.setViewportSize({ width: 1400, height: 900 });
     const shot = join(dir, "check.png");
     await page.screenshot({ path: shot, fullPage: true });
     console.log(`screenshot of the check report: ${shot}`);
   }, 60_000);
 
-  it("prints each app on its own pages, without the table of contents", async () => {
+  it("prints the overview first, then each app on its own pages", async () => {
     const page = await browser.newPage();
     await page.goto(`file://${page1}`);
     await page.emulateMedia({ media: "print" });
-    expect(await page.$eval("nav.toc", (n) => (globalThis as any).getComputedStyle(n).display)).toBe("none");
+    // The overview (one row an app: risk, band, errors, warnings, notes) is kept in print: it is the summary.
+    expect(await page.$eval("table.overview", (n) => (globalThis as any).getComputedStyle(n).display)).not.toBe("none");
+    expect(await page.$$eval("table.overview tbody tr", (r) => r.length)).toBe(2);
     expect(await page.$$eval("section.app", (s) => s.map((x) => (globalThis as any).getComputedStyle(x).breakBefore))).toEqual(["auto", "page"]);
     const pdf = join(dir, "check.pdf");
     await page.pdf({ path: pdf });
