@@ -26,6 +26,18 @@ describe("trim in words", () => {
   });
 });
 
+describe("what trim keeps, in words", () => {
+  it("says what is kept and why, without contradicting itself (POST_NOTIFICATIONS flagged as not seen in code)", () => {
+    // fixtures/smali/beamtorch never posts a notification, so not-seen-in-code flags POST_NOTIFICATIONS; trim keeps it.
+    const { plan } = trim(defaultJudge, `${APK_DIR}beamtorch-code.apk`, { judge: { category: "TOOLS" } });
+    const text = trimToText(plan, "beamtorch-code.apk", defaultJudge.file.caution);
+    const section = text.slice(text.indexOf("Flagged, but kept"));
+    expect(section).toMatch(/\n {2}POST_NOTIFICATIONS: removing it silences every notification the app posts/);
+    expect(section).not.toMatch(/shows the app needs them|never posts/);
+    expect(plan.candidates.map((c) => c.permission)).not.toContain("android.permission.POST_NOTIFICATIONS");
+  });
+});
+
 describe("delta in words", () => {
   const d = delta(defaultJudge, `${APK_DIR}tidewatch.apk`, `${APK_DIR}tidewatch-next.apk`, {});
 

@@ -57,6 +57,23 @@ describe.runIf(hasChromium)("the check report in chromium", () => {
     console.log(`screenshot of the check report: ${shot}`);
   }, 60_000);
 
+  it("shows maxSdkVersion and code evidence beside each permission", async () => {
+    // stridecoach (fixtures/apps/stridecoach) limits BLUETOOTH with maxSdkVersion="30"; beamtorch-code's dex
+    // (fixtures/smali/beamtorch) reaches READ_SMS and never CAMERA.
+    const { stdout } = await cli(["check", "-c", "TOOLS", "-f", "html", `${APK_DIR}stridecoach.apk`, `${APK_DIR}beamtorch-code.apk`]);
+    const page2 = join(dir, "check2.html");
+    writeFileSync(page2, stdout);
+    const page = await browser.newPage();
+    await page.goto(`file://${page2}`);
+    const rows = async (app: number) =>
+      page.locator("section.app").nth(app).locator("table.perms tbody tr").evaluateAll((trs) => trs.map((tr) => ((tr as unknown as { innerText: string }).innerText ?? "").replace(/\\s+/g, " ").trim()));
+    const row = async (app: number, name: string) => (await rows(app)).find((t) => t.split(/\s/)[0] === name);
+    expect(await row(0, "BLUETOOTH")).toMatch(/up to SDK 30/);
+    expect(await row(1, "READ_SMS")).toMatch(/code: used by/);
+    expect(await row(1, "CAMERA")).toMatch(/code: not seen/);
+    expect(await page.$$eval("table.overview tbody tr", (r) => r.length)).toBe(2);
+  }, 60_000);
+
   it("prints the overview first, then each app on its own pages", async () => {
     const page = await browser.newPage();
     await page.goto(`file://${page1}`);
