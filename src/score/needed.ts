@@ -77,9 +77,20 @@ function isSelfManagedConnectionService(c: Component): boolean {
   return c.kind === "service" && c.permission === BIND_CONNECTION_SERVICE && c.intentFilters.some((f) => f.actions.includes("android.telecom.ConnectionService"));
 }
 
+function isHealthRationaleFilter(f: Component["intentFilters"][number]): boolean {
+  return f.actions.includes(HEALTH_RATIONALE) || (f.actions.includes("android.intent.action.VIEW_PERMISSION_USAGE") && f.categories.includes("android.intent.category.HEALTH_PERMISSIONS"));
+}
+
 function showsHealthRationale(c: Component): boolean {
   if (c.kind !== "activity" && c.kind !== "activity-alias") return false;
-  return c.intentFilters.some(
-    (f) => f.actions.includes(HEALTH_RATIONALE) || (f.actions.includes("android.intent.action.VIEW_PERMISSION_USAGE") && f.categories.includes("android.intent.category.HEALTH_PERMISSIONS")),
-  );
+  return c.intentFilters.some(isHealthRationaleFilter);
+}
+
+/**
+ * An activity whose every intent filter is Health Connect's rationale: it must be exported, since Health
+ * Connect starts it from outside the app (sources above), and it only shows the app's privacy text.
+ */
+export function onlyShowsHealthRationale(c: Component): boolean {
+  if (c.kind !== "activity" && c.kind !== "activity-alias") return false;
+  return c.intentFilters.length > 0 && c.intentFilters.every(isHealthRationaleFilter);
 }

@@ -1,8 +1,9 @@
 /** exported-unguarded: components other apps can reach without holding any permission. */
 import type { Component } from "../../extract/manifest/model.js";
+import { onlyShowsHealthRationale } from "../needed.js";
 import type { Check } from "../types.js";
 
-/** The launcher entry point is meant to be reachable by everyone. */
+/** The launcher entry point is meant to be reachable by everyone (so is Health Connect's rationale activity). */
 function isLauncher(c: Component): boolean {
   return c.intentFilters.some((f) => f.actions.includes("android.intent.action.MAIN") && f.categories.includes("android.intent.category.LAUNCHER"));
 }
@@ -18,7 +19,7 @@ export const exportedUnguarded: Check = {
   },
   run(ctx) {
     return ctx.manifest.components
-      .filter((c) => c.effectiveExported && c.enabled !== false && !isLauncher(c))
+      .filter((c) => c.effectiveExported && c.enabled !== false && !isLauncher(c) && !onlyShowsHealthRationale(c))
       .filter((c) => !c.permission && !(c.kind === "provider" && (c.readPermission || c.writePermission)))
       .map((c) => ({ subject: c.name, location: c.source, data: { kind: c.kind, reason: c.exportedReason } }));
   },
