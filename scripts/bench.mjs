@@ -3,6 +3,7 @@
 // measured in the same run, and as a ratio to it. Run with `npm run bench` (builds first).
 //
 //   node scripts/bench.mjs [--only extract] [--sizes 5,50,200] [--reps 15]
+//   node scripts/bench.mjs --only sweep [--sweep-sets typo,small,code,large] [--sweep-typo 3000]
 import { execFileSync, spawn, spawnSync } from "node:child_process";
 import { closeSync, copyFileSync, existsSync, fstatSync, mkdirSync, openSync, readFileSync, readSync, readdirSync, rmSync, writeFileSync, openSync as open2, writeSync } from "node:fs";
 import { randomBytes } from "node:crypto";
@@ -307,14 +308,18 @@ if (ONLY.includes("sweep")) {
   const LARGE = Number(opt("sweep-large", "200"));
   const LARGE_MB = Number(opt("sweep-large-mb", "50"));
   const manifest = lib.openArchiveFile(join(ROOT, "fixtures/apk/tidewatch.apk")).read("AndroidManifest.xml", "MAX_MANIFEST_BYTES");
+  const TYPO = Number(opt("sweep-typo", "3000"));
   const sets = [
-    { name: `${SMALL.toLocaleString("en")} small APKs`, dir: join(OUT, `sweep-small-${SMALL}`), count: SMALL, make: (p) => copyFileSync(join(ROOT, "fixtures/apk/tidewatch.apk"), p) },
+    // The demo lamp asks for a misspelt android.permission.* name: the typo search runs for every app.
+    { key: "typo", name: `${TYPO.toLocaleString("en")} small APKs with a misspelt permission name`, dir: join(OUT, `sweep-typo-${TYPO}`), count: TYPO, make: (p) => copyFileSync(join(ROOT, "fixtures/apk/pocketlamp.apk"), p) },
+    { key: "small", name: `${SMALL.toLocaleString("en")} small APKs`, dir: join(OUT, `sweep-small-${SMALL}`), count: SMALL, make: (p) => copyFileSync(join(ROOT, "fixtures/apk/tidewatch.apk"), p) },
     // Small APKs that carry dex code (two dex files, an app and a library package), to weigh code evidence.
-    { name: `${SMALL.toLocaleString("en")} small APKs with dex code`, dir: join(OUT, `sweep-code-${SMALL}`), count: SMALL, make: (p) => copyFileSync(join(ROOT, "fixtures/apk/beamtorch-code.apk"), p), code: true },
-    { name: `${LARGE} APKs of ${LARGE_MB} MB`, dir: join(OUT, `sweep-large-${LARGE}`), count: LARGE, make: (p) => writeSyntheticApk(p, LARGE_MB, Buffer.from(manifest)) },
+    { key: "code", name: `${SMALL.toLocaleString("en")} small APKs with dex code`, dir: join(OUT, `sweep-code-${SMALL}`), count: SMALL, make: (p) => copyFileSync(join(ROOT, "fixtures/apk/beamtorch-code.apk"), p), code: true },
+    { key: "large", name: `${LARGE} APKs of ${LARGE_MB} MB`, dir: join(OUT, `sweep-large-${LARGE}`), count: LARGE, make: (p) => writeSyntheticApk(p, LARGE_MB, Buffer.from(manifest)) },
   ];
   const hasAapt = spawnSync("aapt", ["version"], { stdio: "ignore" }).error === undefined;
-  for (const set of sets) {
+  const SETS = opt("sweep-sets", "typo,small,code,large").split(",");
+  for (const set of sets.filter((x) => SETS.includes(x.key))) {
     header(`sweep: ${set.name}, 2 jobs, against the floor (central directory + manifest entry of each, one thread)`);
     if (!existsSync(set.dir)) {
       mkdirSync(set.dir, { recursive: true });
