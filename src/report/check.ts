@@ -6,7 +6,7 @@ import type { CodeEvidence } from "../score/code-evidence.js";
 import type { CheckResult, NotJudged } from "../score/judge.js";
 import type { Policy } from "../score/policy/policy.js";
 import type { CategoryChoice } from "../score/category.js";
-import { codeLookup, neededText, wordFinding, type CodeLookup } from "./messages.js";
+import { atypicalityText, codeLookup, neededText, wordFinding, type CodeLookup } from "./messages.js";
 import type { RiskEstimate } from "../score/risk.js";
 import type { Finding } from "../score/types.js";
 import { TOOL_VERSION } from "../version.js";
@@ -76,7 +76,7 @@ export function riskLines(r: RiskEstimate, s: Style, width = 80): string[] {
     const pb = r.prevalence.band === "high" ? s.alert("high") : r.prevalence.band === "elevated" ? s.warn("elevated") : "low";
     out.push(...wrap(`  at a prevalence of ${pct(r.prevalence.share)} (--prevalence): ${pct(r.prevalence.probability)} — ${pb}`, width, 4));
   }
-  if (r.atypicality) out.push(...wrap(`  atypicality: more atypical than ${Math.floor(r.atypicality.percentile)}% of ${r.atypicality.category ?? "all"} apps in the baseline (no labels involved)`, width, 4));
+  if (r.atypicality) out.push(...wrap(`  atypicality: ${atypicalityText(r.atypicality)} (no labels involved)`, width, 4));
   const quality = [`in-corpus ROC AUC ${r.quality.inCorpus.toFixed(2)}`, ...r.quality.validation.map((v) => `${v.name} ${v.auc.toFixed(2)}`)].join("; ");
   out.push(...wrap(`  ${r.caution} How well it ranks: ${quality}.`, width, 2).map((l) => s.dim(l)));
   const top = r.contributions.slice(0, 4);

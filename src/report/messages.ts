@@ -134,3 +134,13 @@ export function neededText(r: NeedReason | { kind: "notifications" }): string {
       return "removing it silences every notification the app posts, and no manifest shows an app posts none";
   }
 }
+
+/**
+ * Where an app's atypicality falls among the baseline's apps of its category, in words. Below the first
+ * percentile, "more atypical than 0%" would read as a figure; it says where the app stands instead.
+ */
+export function atypicalityText(a: { percentile: number; category?: string }, suffix = " in the baseline"): string {
+  const who = `${a.category ?? "all"} apps${suffix}`;
+  const p = Math.floor(a.percentile);
+  return p < 1 ? `among the 1% least atypical of ${who}` : `more atypical than ${p}% of ${who}`;
+}

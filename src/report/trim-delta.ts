@@ -5,7 +5,7 @@ import { snippetFor, type TrimPlan } from "../score/trim/plan.js";
 import { TOOLS_NS } from "../extract/xml-tree.js";
 import { TOOL_VERSION } from "../version.js";
 import { messageOf } from "./check.js";
-import { codeLookup, neededText, wordFinding } from "./messages.js";
+import { atypicalityText, codeLookup, neededText, wordFinding } from "./messages.js";
 import type { SafeReason } from "../score/trim/plan.js";
 import { findingLines, verdict } from "./finding-text.js";
 import { PLAIN, wrap, type Style } from "./style.js";
@@ -40,7 +40,7 @@ export function trimToText(plan: TrimPlan, file: string, caution: string | undef
   out.push(...wrap(`  ${file}`, 80, 2));
   if (plan.risk !== undefined) {
     out.push(...wrap(`  risk now ${pct(plan.risk)}${plan.riskWithoutAll !== undefined ? `; with every change below ${pct(plan.riskWithoutAll)}` : ""} (base rate ${pct(plan.baseRate ?? 0)} of the labeled corpus${plan.prevalence ? `; at a prevalence of ${pct(plan.prevalence.share)}: ${pct(plan.prevalence.probability)} now` : ""})`, 80, 4));
-    if (plan.atypicality) out.push(`  atypicality: more atypical than ${Math.floor(plan.atypicality.percentile)}% of ${plan.atypicality.category ?? "all"} apps`);
+    if (plan.atypicality) out.push(`  atypicality: ${atypicalityText(plan.atypicality, "")}`);
     if (caution) out.push(...wrap(`  ${caution}`, 80, 2).map((l) => s.dim(l)));
   }
   plan.candidates.forEach((c, i) => {

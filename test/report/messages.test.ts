@@ -1,6 +1,6 @@
 /** Check messages live in the report layer: one a check, worded from the finding's data. */
 import { describe, expect, it } from "vitest";
-import { codeLookup, MESSAGES, wordFinding } from "../../src/report/messages.js";
+import { atypicalityText, codeLookup, MESSAGES, wordFinding } from "../../src/report/messages.js";
 import { CHECKS } from "../../src/score/registry.js";
 import { defaultJudge, judgeText, manifestText } from "../helpers/judge.js";
 
@@ -37,5 +37,13 @@ describe("check messages", () => {
 
   it("word a policy rule's finding with where the rule is", () => {
     expect(wordFinding({ checkId: "policy:no-sms", subject: "android.permission.SEND_SMS", data: { message: "no SMS here", rule: "no-sms", policy: "shop", file: "shop.json", line: 4 } })).toBe("no SMS here (rule no-sms of shop, shop.json:4)");
+  });
+});
+
+describe("atypicality in words", () => {
+  it("gives the percentile, and says where the app stands below the first (framework-res.apk sits there)", () => {
+    expect(atypicalityText({ percentile: 89.7, category: "TOOLS" })).toBe("more atypical than 89% of TOOLS apps in the baseline");
+    expect(atypicalityText({ percentile: 0 })).toBe("among the 1% least atypical of all apps in the baseline");
+    expect(atypicalityText({ percentile: 0.4, category: "TOOLS" }, "")).not.toMatch(/0%/);
   });
 });

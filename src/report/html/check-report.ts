@@ -9,7 +9,7 @@ import type { NotJudged } from "../../score/judge.js";
 import type { RequestedRate } from "../../score/requested.js";
 import type { Level } from "../../score/types.js";
 import { TOOL_VERSION } from "../../version.js";
-import { codeLookup, neededText } from "../messages.js";
+import { atypicalityText, codeLookup, neededText } from "../messages.js";
 import { alsoMessages, categoryText, contributionText, messageOf, notJudgedText, type CheckRun, type CheckRunInfo } from "../check.js";
 import { codeStatusText } from "../../score/code-evidence.js";
 import { isSpecialAccess } from "../../platform/sensitivity.js";
@@ -63,7 +63,7 @@ function appSection(run: HtmlCheckRun, info: CheckRunInfo & { threshold: number 
   out.push(`<dl class="facts">${facts.map(([k, v]) => `<dt>${esc(k)}</dt><dd>${esc(v)}</dd>`).join("")}</dl>`);
   if (r.risk) {
     out.push(`<div class="risk ${r.risk.band}"><div class="figure">Risk ${pct(r.risk.probability)} — ${esc(r.risk.band)}</div>`);
-    out.push(`<div>Base rate of the labeled corpus ${pct(r.risk.baseRate)}; likelihood ratio ${r.risk.likelihoodRatio.toFixed(2)}.${r.risk.atypicality ? ` More atypical than ${Math.floor(r.risk.atypicality.percentile)}% of ${esc(r.risk.atypicality.category ?? "all")} apps in the baseline (no labels involved).` : ""}</div>`);
+    out.push(`<div>Base rate of the labeled corpus ${pct(r.risk.baseRate)}; likelihood ratio ${r.risk.likelihoodRatio.toFixed(2)}.${r.risk.atypicality ? ` ${esc(sentence(atypicalityText(r.risk.atypicality)))} (no labels involved).` : ""}</div>`);
     // What drives the figure, as the text report gives it: the largest contributions, and the risk without each permission.
     const top = r.risk.contributions.slice(0, 4);
     if (top.length) out.push(`<div class="breakdown"><strong>Raised most by</strong><ul>${top.map((c) => `<li>${esc(contributionText(c, r.risk!.featureCategory))}</li>`).join("")}</ul></div>`);
@@ -133,4 +133,9 @@ export function checkToHtml(runs: HtmlCheckRun[], info: CheckRunInfo & { thresho
   read.forEach((r, i) => body.push(appSection(r, info, i)));
   body.push(`<footer>${esc(info.caution)}</footer>`);
   return pageShell(title, CHECK_PAGE_CSS, body.join("\n"));
+}
+
+/** A phrase as the start of a sentence. */
+function sentence(text: string): string {
+  return text.charAt(0).toUpperCase() + text.slice(1);
 }
