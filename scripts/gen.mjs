@@ -58,7 +58,7 @@ writeIfChanged(
 );
 
 // Smaller platform tables, each row with its source: rows of fields under their header.
-for (const [file, name] of [["permission-added-in", "ADDED_IN"], ["permission-lineage", "LINEAGE"], ["sensitivity", "SENSITIVITY"], ["code-evidence-extra", "CODE_EXTRA"], ["foreground-service-types", "SERVICE_TYPES"]]) {
+for (const [file, name] of [["permission-added-in", "ADDED_IN"], ["permission-lineage", "LINEAGE"], ["sensitivity", "SENSITIVITY"], ["code-evidence-extra", "CODE_EXTRA"], ["foreground-service-types", "SERVICE_TYPES"], ["framework-superclasses", "FRAMEWORK_SUPER"], ["code-evidence-corrections", "CODE_CORRECTIONS"]]) {
   const lines = readFileSync(`${root}src/platform/data/${file}.tsv`, "utf8").split(/\r?\n/).filter((l) => l !== "");
   const head = lines[0].split("\t");
   const body = lines.slice(1).map((l) => l.split("\t"));

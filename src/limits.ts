@@ -34,6 +34,8 @@ export const LIMITS = {
   MAX_DEX_IDS: 4_000_000,
   /** 16-bit code units of instructions in one dex file, all methods together. */
   MAX_DEX_CODE_UNITS: 200_000_000,
+  /** Methods the app's dex files define, all together, beyond which no call graph is built (evidence is then shown without reachability). */
+  MAX_CALL_GRAPH_METHODS: 3_000_000,
   /** Dex files read from one app (classes.dex, classes2.dex … across a bundle's modules). */
   MAX_DEX_FILES: 512,
   /** Hops when a string resource refers to another resource. */

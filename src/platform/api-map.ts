@@ -5,7 +5,9 @@
  * see: checks made in native code or by group membership (camera, audio recording, sockets) and APIs added
  * after API 25. Several permissions on one entry mean "one or more of these" (the maps' own reading).
  */
+import { CODE_CORRECTIONS_HEADER, CODE_CORRECTIONS_ROWS } from "./generated/code-evidence-corrections.js";
 import { CODE_EXTRA_HEADER, CODE_EXTRA_ROWS } from "./generated/code-evidence-extra.js";
+import { FRAMEWORK_SUPER_HEADER, FRAMEWORK_SUPER_ROWS } from "./generated/framework-superclasses.js";
 import { CP_MAP_25 } from "./generated/cp-map-25.js";
 import { SDK_MAP_25 } from "./generated/sdk-map-25.js";
 
@@ -26,6 +28,15 @@ export interface ApiPermissionMap {
   uris: ReadonlyMap<string, MapEntry>;
   /** Broadcast actions delivered only to holders of the permission. */
   actions: ReadonlyMap<string, MapEntry>;
+  /** Classes whose use (instantiated, or named as a class constant) needs the permission: Health Connect record types. */
+  classes: ReadonlyMap<string, MapEntry>;
+  /**
+   * Superclasses of framework classes (framework-superclasses.tsv): a call on a subclass lands on the
+   * member its superclass declares, so the lookup continues up this chain.
+   */
+  frameworkSuper: ReadonlyMap<string, string>;
+  /** Rows of the published maps that were dropped, with the reason (code-evidence-corrections.tsv). */
+  corrections: readonly { key: string; permission: string; reason: string }[];
   /** Every permission at least one entry ties to an API, URI or action. */
   covered: ReadonlySet<string>;
   /** Classes that declare a mapped method: a reference to any other class needs no lookup. */
@@ -62,6 +73,17 @@ export function parseProviderMap(text: string, into: Map<string, MapEntry>, sour
   }
 }
 
+/** Drops `permission` from the entry `key` (every entry for `*`); an entry left with none is removed. */
+function correct(map: Map<string, MapEntry>, key: string, permission: string): void {
+  for (const k of key === "*" ? [...map.keys()] : [key]) {
+    const e = map.get(k);
+    if (!e || !e.permissions.includes(permission)) continue;
+    const rest = e.permissions.filter((p) => p !== permission);
+    if (rest.length) map.set(k, { ...e, permissions: rest });
+    else map.delete(k);
+  }
+}
+
 let built: ApiPermissionMap | undefined;
 
 /** The bundled map (built once). */
@@ -72,24 +94,29 @@ export function apiPermissionMap(): ApiPermissionMap {
   const fields = new Map<string, MapEntry>();
   const uris = new Map<string, MapEntry>();
   const actions = new Map<string, MapEntry>();
+  const classes = new Map<string, MapEntry>();
   parseSdkMap(SDK_MAP_25, methods);
   parseProviderMap(CP_MAP_25, uris);
   const col = (name: string) => CODE_EXTRA_HEADER.indexOf(name);
   const [kind, key, perms, source] = [col("kind"), col("key"), col("permissions"), col("source")];
   for (const row of CODE_EXTRA_ROWS) {
-    const target = { method: methodsAnyOverload, field: fields, string: uris, action: actions }[row[kind] as "method"];
+    const target = { method: methodsAnyOverload, field: fields, string: uris, action: actions, class: classes }[row[kind] as "method"];
     if (!target) throw new Error(`code-evidence-extra.tsv: unknown kind ${row[kind]}`);
     add(target, row[key], row[perms].split(","), row[source]);
   }
+  const corrections = CODE_CORRECTIONS_ROWS.map((r) => ({ key: r[CODE_CORRECTIONS_HEADER.indexOf("key")], permission: r[CODE_CORRECTIONS_HEADER.indexOf("permission")], reason: r[CODE_CORRECTIONS_HEADER.indexOf("reason")] }));
+  const all = [methods, methodsAnyOverload, fields, uris, actions, classes];
+  for (const c of corrections) for (const m of all) correct(m, c.key, c.permission);
+  const frameworkSuper = new Map(FRAMEWORK_SUPER_ROWS.map((r) => [r[FRAMEWORK_SUPER_HEADER.indexOf("class")], r[FRAMEWORK_SUPER_HEADER.indexOf("superclass")]] as const));
   const covered = new Set<string>();
-  for (const m of [methods, methodsAnyOverload, fields, uris, actions]) for (const e of m.values()) for (const p of e.permissions) covered.add(p);
+  for (const m of all) for (const e of m.values()) for (const p of e.permissions) covered.add(p);
   const methodOwners = new Set<string>();
   for (const key of [...methods.keys(), ...methodsAnyOverload.keys()]) {
     const paren = key.indexOf("(");
     const name = paren < 0 ? key : key.slice(0, paren);
     methodOwners.add(name.slice(0, name.lastIndexOf(".")));
   }
-  built = { methods, methodsAnyOverload, fields, uris, actions, covered, methodOwners };
+  built = { methods, methodsAnyOverload, fields, uris, actions, classes, frameworkSuper, corrections, covered, methodOwners };
   return built;
 }
 

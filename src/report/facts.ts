@@ -3,7 +3,7 @@
  */
 import { MANIFEST_SCHEMA_VERSION, type Component, type Manifest, type RequestedPermission } from "../extract/manifest/model.js";
 import { REMOVED_PERMISSION_SHORT } from "../platform/sdk-facts.js";
-import { BLIND_SPOTS, codeStatusText, evidenceLabel, type CodeEvidence, type EvidenceItem, type PermissionEvidence } from "../score/code-evidence.js";
+import { BLIND_SPOTS, blindSpotText, codeStatusText, evidenceLabel, type CodeEvidence, type EvidenceItem, type PermissionEvidence } from "../score/code-evidence.js";
 import { TOOL_VERSION } from "../version.js";
 import { PLAIN, fit, wrap, type Style } from "./style.js";
 import { PLATFORM_PREFIX, short } from "./format.js";
@@ -181,9 +181,20 @@ export function codeText(code: CodeEvidence, s: Style): string[] {
   if (!code.read.length && !code.problems.length) out.push("  no dex code in the archive");
   else out.push(...wrap(`  read ${code.read.length} dex ${code.read.length === 1 ? "file" : "files"} (${classes} ${classes === 1 ? "class" : "classes"}): ${code.read.map((d) => d.entry).join(", ") || "none"}`, WIDTH, 4));
   for (const p of code.problems) out.push(...wrap(`  ${s.warn(p)}`, WIDTH, 4));
+  if (code.reachability) {
+    const r = code.reachability;
+    out.push(...wrap(s.dim(`  call graph: ${r.reached} of ${r.methods} methods reached from the manifest's entry points (${r.entries} classes instantiated)`), WIDTH, 4));
+  }
   const used = code.permissions.filter((x) => x.status === "used");
   if (used.length) out.push(`  Requested and used (${used.length})`);
   for (const e of used) {
+    out.push(`    ${short(e.permission)}`);
+    for (const item of e.evidence.slice(0, 3)) out.push(...wrap(s.dim(`      ${evidenceLine(item)}`), WIDTH, 8));
+    if (e.evidence.length > 3) out.push(s.dim(`      and ${e.evidence.length - 3} more`));
+  }
+  const dead = code.permissions.filter((x) => x.status === "unreached");
+  if (dead.length) out.push(`  Requested, only in code never reached (${dead.length})`);
+  for (const e of dead) {
     out.push(`    ${short(e.permission)}`);
     for (const item of e.evidence.slice(0, 3)) out.push(...wrap(s.dim(`      ${evidenceLine(item)}`), WIDTH, 8));
     if (e.evidence.length > 3) out.push(s.dim(`      and ${e.evidence.length - 3} more`));
@@ -192,16 +203,18 @@ export function codeText(code: CodeEvidence, s: Style): string[] {
     out.push(`  Reached in code, not requested (${code.unrequested.length})`);
     for (const u of code.unrequested) {
       out.push(...wrap(`    ${u.permissions.map(short).join(" or ")}`, WIDTH, 6));
-      out.push(...wrap(s.dim(`      ${evidenceLine(u.evidence)}`), WIDTH, 8));
+      for (const item of u.evidence.slice(0, 3)) out.push(...wrap(s.dim(`      ${evidenceLine(item)}`), WIDTH, 8));
+      if (u.evidence.length > 3) out.push(s.dim(`      and ${u.evidence.length - 3} more`));
     }
   }
+  for (const b of code.blind) out.push(...wrap(s.warn(`  ${blindSpotText(b)}`), WIDTH, 4));
   out.push(...wrap(s.dim(`  maps: ${BLIND_SPOTS}`), WIDTH, 4));
   return out;
 }
 
 function evidenceLine(item: EvidenceItem): string {
   if (item.kind === "receiver") return `${evidenceLabel(item)} (manifest)`;
-  return `${evidenceLabel(item)} in ${item.classes} ${item.classes === 1 ? "class" : "classes"} (${item.packages.join(", ")})`;
+  return `${evidenceLabel(item)} in ${item.classes} ${item.classes === 1 ? "class" : "classes"} (${item.packages.join(", ")})${item.reached ? "" : ", never reached"}`;
 }
 
 function byName(a: { name: string }, b: { name: string }): number {

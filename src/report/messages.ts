@@ -45,7 +45,9 @@ export const MESSAGES: Readonly<Record<string, Message>> = {
     return `no effect at targetSdk ${d.targetSdk}: ${d.why}${instead}`;
   },
   "not-seen-in-code": (f) =>
-    `nothing in the app's code (${f.data.dexFiles} dex ${f.data.dexFiles === 1 ? "file" : "files"}${f.data.partial ? ", some unreadable" : ""}) reaches an API the permission maps tie to it; reflection, native code, dynamically loaded code and APIs outside the maps are not seen`,
+    Array.isArray(f.data.unreached)
+      ? `only code that no entry point of the app reaches (${f.data.classes} ${f.data.classes === 1 ? "class" : "classes"}) uses it: ${(f.data.unreached as string[]).slice(0, 3).join(", ")}${(f.data.unreached as string[]).length > 3 ? " …" : ""}; reflection and classes created by name from resources are not seen`
+      : `nothing in the app's code (${f.data.dexFiles} dex ${f.data.dexFiles === 1 ? "file" : "files"}${f.data.partial ? ", some unreadable" : ""}) reaches an API the permission maps tie to it; reflection, native code, dynamically loaded code and APIs outside the maps are not seen`,
   "sensitive-uncommon": rateMessage,
   "service-type-permission": (f) => {
     const needs = (f.data.missing as string[]).map(short);

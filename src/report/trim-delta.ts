@@ -19,7 +19,7 @@ const SAFE_BECAUSE: Record<SafeReason, string> = {
   "nothing-without-foreground-location": "it grants nothing without foreground location",
   "no-such-permission": "the platform defines no such permission",
   "forbidden-by-policy": "a policy in force forbids it",
-  "not-seen-in-code": "the code reaches nothing the permission maps tie to it (not proof: reflection and native code are not seen)",
+  "not-seen-in-code": "the code's entry points reach nothing the permission maps tie to it (not proof: reflection and native code are not seen)",
   "nothing-in-manifest-needs-it": "no component, service type or declaration in the manifest needs it",
   "nothing-in-manifest-needs-it-code-unread": "no component, service type or declaration in the manifest needs it (check the code before removing)",
 };

@@ -90,7 +90,7 @@ function evidenceOf(code: CodeEvidence): Map<string, CodeDelta["appeared"][numbe
     out.set(key, { kind: e.kind, what: e.what, permissions: [...new Set([...(had?.permissions ?? []), ...permissions])].sort(), packages: e.packages });
   };
   for (const p of code.permissions) for (const e of p.evidence) add(e, [p.permission]);
-  for (const u of code.unrequested) add(u.evidence, u.permissions);
+  for (const u of code.unrequested) for (const e of u.evidence) add(e, u.permissions);
   return out;
 }
 

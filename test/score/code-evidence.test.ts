@@ -77,7 +77,7 @@ function expectedFromSmali(): string[][] {
 describe("code evidence", () => {
   it("reports as reached exactly what the maps list for the calls in the smali source", () => {
     const ev = evidenceOf(apkBytes);
-    const reached = new Set([...ev.permissions.filter((p) => p.status === "used").map((p) => p.permission), ...ev.unrequested.flatMap((u) => (u.evidence.kind === "receiver" ? [] : u.permissions))]);
+    const reached = new Set([...ev.permissions.filter((p) => p.status === "used").map((p) => p.permission), ...ev.unrequested.flatMap((u) => (u.evidence.every((e) => e.kind === "receiver") ? [] : u.permissions))]);
     const expected = expectedFromSmali();
     const requested = new Set(ev.permissions.map((p) => p.permission));
     // Every alternative of a reference counts as reached when none is requested; otherwise only the requested ones.
@@ -99,9 +99,9 @@ describe("code evidence", () => {
     const sms = by.READ_SMS.evidence.find((e) => e.kind === "uri")!;
     expect(sms).toMatchObject({ what: "content://sms", classes: 1, packages: ["org.example.beamtorch"] });
     // The manifest's BOOT_COMPLETED receiver without RECEIVE_BOOT_COMPLETED never fires.
-    expect(ev.unrequested.find((u) => u.evidence.kind === "receiver")?.permissions).toEqual(["android.permission.RECEIVE_BOOT_COMPLETED"]);
+    expect(ev.unrequested.find((u) => u.evidence.some((e) => e.kind === "receiver"))?.permissions).toEqual(["android.permission.RECEIVE_BOOT_COMPLETED"]);
     const send = ev.unrequested.find((u) => u.permissions.includes("android.permission.SEND_SMS"))!;
-    expect(send.evidence.packages).toEqual(["org.example.beamtorch"]);
+    expect(send.evidence[0].packages).toEqual(["org.example.beamtorch"]);
   });
 
   it("a damaged dex costs only its own evidence, and says which", () => {

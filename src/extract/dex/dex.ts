@@ -24,14 +24,50 @@ export interface DexFieldRef {
   type: string;
 }
 
+/** How an invoke instruction dispatches (Dalvik bytecode, invoke-kind). */
+export const InvokeKind = { Virtual: 0, Super: 1, Direct: 2, Static: 3, Interface: 4, Polymorphic: 5 } as const;
+export type InvokeKind = (typeof InvokeKind)[keyof typeof InvokeKind];
+
+/** A method the class defines (encoded_method of class_data_item), with what its own code refers to. */
+export interface DexMethodDef {
+  /** Index into the method ids. */
+  id: number;
+  accessFlags: number;
+  /** Declared among direct_methods (static, private or a constructor): never dispatched virtually. */
+  direct: boolean;
+  /**
+   * Where its references start in `DexFile.code` (see `methodCode`); -1 for a method without code
+   * (abstract or native).
+   */
+  at: number;
+}
+
 export interface DexClass {
   descriptor: string;
   superclass?: string;
+  /** Interfaces the class declares it implements (its own list, not inherited ones). */
+  interfaces: string[];
+  accessFlags: number;
   /** Indices into `methods`, `fields` and `strings` that this class's code uses (unique, in the order the code first uses them). */
   methodRefs: number[];
   fieldRefs: number[];
   stringRefs: number[];
+  /** The methods it defines, direct then virtual, in file order. */
+  methods: DexMethodDef[];
 }
+
+/** One method's references, each list unique in the order the code first uses it. */
+export interface MethodCode {
+  /** `methodIndex * 8 + InvokeKind`. */
+  invokes: Int32Array;
+  fields: Int32Array;
+  strings: Int32Array;
+  /** Types it instantiates (`new-instance`) or names as a class constant (`const-class`). */
+  types: Int32Array;
+}
+
+/** ACC_INTERFACE, ACC_ABSTRACT, ACC_STATIC, ACC_PRIVATE, ACC_NATIVE, ACC_CONSTRUCTOR (dex format, access_flags). */
+export const ACC = { PUBLIC: 0x1, PRIVATE: 0x2, STATIC: 0x8, NATIVE: 0x100, INTERFACE: 0x200, ABSTRACT: 0x400, CONSTRUCTOR: 0x10000 } as const;
 
 export interface DexFile {
   version: string;
@@ -57,7 +93,21 @@ export interface DexFile {
   readonly methods: DexMethodRef[];
   readonly fields: DexFieldRef[];
   classes: DexClass[];
+  /** The references of every method with code, packed; read through `methodCode`. */
+  code: Int32Array;
 }
+
+/** One method's references, as views into the dex's packed table (no copy). */
+export function methodCode(dex: Pick<DexFile, "code">, def: DexMethodDef): MethodCode {
+  const c = dex.code;
+  if (def.at < 0) return EMPTY_CODE;
+  const [ni, nf, ns, nt] = [c[def.at], c[def.at + 1], c[def.at + 2], c[def.at + 3]];
+  let p = def.at + 4;
+  const take = (n: number) => c.subarray(p, (p += n));
+  return { invokes: take(ni), fields: take(nf), strings: take(ns), types: take(nt) };
+}
+
+const EMPTY_CODE: MethodCode = { invokes: new Int32Array(0), fields: new Int32Array(0), strings: new Int32Array(0), types: new Int32Array(0) };
 
 const NO_INDEX = 0xffffffff;
 
@@ -249,20 +299,48 @@ function idLookups(r: ByteReader, h: ReturnType<typeof readHeader>, str: (i: num
   return { type, field, method };
 }
 
-/** Every class_def with the methods, fields and strings its code refers to. */
-function readClasses(bytes: Uint8Array, r: ByteReader, h: ReturnType<typeof readHeader>, type: (i: number, what: string) => string): DexClass[] {
-  const { strT, fieldT, methodT, classT } = h;
+/** A growable Int32Array: the packed per-method references of one dex. */
+class Packed {
+  buf = new Int32Array(4096);
+  length = 0;
+  push(v: number): void {
+    if (this.length === this.buf.length) {
+      const next = new Int32Array(this.buf.length * 2);
+      next.set(this.buf);
+      this.buf = next;
+    }
+    this.buf[this.length++] = v;
+  }
+}
+
+/** Every class_def with the methods, fields and strings its code refers to, per class and per method. */
+function readClasses(bytes: Uint8Array, r: ByteReader, h: ReturnType<typeof readHeader>, type: (i: number, what: string) => string): { classes: DexClass[]; code: Int32Array } {
+  const { strT, typeT, fieldT, methodT, classT } = h;
   const classes: DexClass[] = [];
   let codeUnits = 0;
-  // Which class last noted each id: a reference is listed once per class without a set per class.
+  // Which class (and which method) last noted each id: a reference is listed once per class and once per
+  // method without a set per class or method.
   const seen = { m: new Int32Array(methodT.size), f: new Int32Array(fieldT.size), s: new Int32Array(strT.size) };
-  const sizes = { strings: strT.size, methods: methodT.size, fields: fieldT.size };
+  const seenByMethod = { m: new Int32Array(methodT.size), f: new Int32Array(fieldT.size), s: new Int32Array(strT.size), t: new Int32Array(typeT.size) };
+  const sizes = { strings: strT.size, methods: methodT.size, fields: fieldT.size, types: typeT.size };
+  const packed = new Packed();
+  const scratch: MethodScratch = { stamp: 0, seen: seenByMethod, inv: [], f: [], s: [], t: [] };
   for (let i = 0; i < classT.size; i++) {
     const base = classT.off + 32 * i;
     const descriptor = type(r.u32(base, "class_def class_idx"), "class_def");
+    const accessFlags = r.u32(base + 4, "class_def access_flags");
     const superIdx = r.u32(base + 8, "class_def superclass_idx");
+    const interfacesOff = r.u32(base + 12, "class_def interfaces_off");
     const dataOff = r.u32(base + 24, "class_def class_data_off");
     const refs: Refs = { stamp: i + 1, m: [], f: [], s: [], seen };
+    const methods: DexMethodDef[] = [];
+    const interfaces: string[] = [];
+    if (interfacesOff) {
+      const n = r.u32(interfacesOff, "class_def interfaces size");
+      checkLimit("MAX_DEX_IDS", n, "dex interface list declares a count of");
+      r.need(interfacesOff + 4, 2 * n, "interfaces type_list");
+      for (let k = 0; k < n; k++) interfaces.push(type(r.view.getUint16(interfacesOff + 4 + 2 * k, true), "class_def interfaces"));
+    }
     if (dataOff) {
       const at = { p: dataOff };
       const next = (what: string): number => uleb(bytes, at, what);
@@ -273,22 +351,50 @@ function readClasses(bytes: Uint8Array, r: ByteReader, h: ReturnType<typeof read
         next("encoded_field");
         next("encoded_field");
       }
-      for (let k = 0; k < counts[2] + counts[3]; k++) {
-        next("encoded_method");
-        next("encoded_method");
-        const codeOff = next("encoded_method code_off");
-        if (!codeOff) continue;
-        // code_item: insns_size (u32) at +12, insns (u16 each) from +16.
-        const insns = r.u32(codeOff + 12, "code_item insns_size");
-        codeUnits += insns;
-        checkLimit("MAX_DEX_CODE_UNITS", codeUnits, "dex code holds instructions, in 16-bit units, to a count of");
-        r.need(codeOff + 16, 2 * insns, "code_item insns");
-        scanCode(r, codeOff + 16, insns, refs, sizes);
+      for (let list = 0; list < 2; list++) {
+        // method_idx_diff: the first of each list is the index itself, the rest add to the one before.
+        let id = 0;
+        for (let k = 0; k < counts[2 + list]; k++) {
+          id += next("encoded_method method_idx_diff");
+          const flags = next("encoded_method access_flags");
+          const codeOff = next("encoded_method code_off");
+          if (id >= methodT.size) throw new DexError(`class ${descriptor} defines method ${id}, past the ${methodT.size} method ids`);
+          if (!codeOff) {
+            methods.push({ id, accessFlags: flags, direct: list === 0, at: -1 });
+            continue;
+          }
+          // code_item: insns_size (u32) at +12, insns (u16 each) from +16.
+          const insns = r.u32(codeOff + 12, "code_item insns_size");
+          codeUnits += insns;
+          checkLimit("MAX_DEX_CODE_UNITS", codeUnits, "dex code holds instructions, in 16-bit units, to a count of");
+          r.need(codeOff + 16, 2 * insns, "code_item insns");
+          scratch.stamp++;
+          scratch.inv.length = scratch.f.length = scratch.s.length = scratch.t.length = 0;
+          scanCode(r, codeOff + 16, insns, refs, scratch, sizes);
+          methods.push({ id, accessFlags: flags, direct: list === 0, at: packed.length });
+          packed.push(scratch.inv.length);
+          packed.push(scratch.f.length);
+          packed.push(scratch.s.length);
+          packed.push(scratch.t.length);
+          for (const v of scratch.inv) packed.push(v);
+          for (const v of scratch.f) packed.push(v);
+          for (const v of scratch.s) packed.push(v);
+          for (const v of scratch.t) packed.push(v);
+        }
       }
     }
-    classes.push({ descriptor, ...(superIdx !== NO_INDEX ? { superclass: type(superIdx, "class_def superclass") } : {}), methodRefs: refs.m, fieldRefs: refs.f, stringRefs: refs.s });
+    classes.push({
+      descriptor,
+      ...(superIdx !== NO_INDEX ? { superclass: type(superIdx, "class_def superclass") } : {}),
+      interfaces,
+      accessFlags,
+      methodRefs: refs.m,
+      fieldRefs: refs.f,
+      stringRefs: refs.s,
+      methods,
+    });
   }
-  return classes;
+  return { classes, code: packed.buf.subarray(0, packed.length) };
 }
 
 export function readDex(bytes: Uint8Array): DexFile {
@@ -296,7 +402,7 @@ export function readDex(bytes: Uint8Array): DexFile {
   const h = readHeader(bytes, r);
   const strings = stringTable(bytes, r, h.strT);
   const { type, field, method } = idLookups(r, h, strings.str);
-  const classes = readClasses(bytes, r, h, type);
+  const { classes, code } = readClasses(bytes, r, h, type);
   let all: string[] | undefined;
   return {
     version: h.version,
@@ -323,6 +429,7 @@ export function readDex(bytes: Uint8Array): DexFile {
       return Array.from({ length: h.fieldT.size }, (_, i) => field(i));
     },
     classes,
+    code,
   };
 }
 
@@ -336,7 +443,20 @@ interface Refs {
   seen: { m: Int32Array; f: Int32Array; s: Int32Array };
 }
 
-function scanCode(r: ByteReader, start: number, units: number, refs: Refs, sizes: { strings: number; methods: number; fields: number }): void {
+/** The references of the method being scanned, with stamps of their own (one per method). */
+interface MethodScratch {
+  stamp: number;
+  seen: { m: Int32Array; f: Int32Array; s: Int32Array; t: Int32Array };
+  inv: number[];
+  f: number[];
+  s: number[];
+  t: number[];
+}
+
+/** invoke-kind of opcodes 0x6e-0x72 and their /range forms 0x74-0x78. */
+const KIND_OF: readonly number[] = [InvokeKind.Virtual, InvokeKind.Super, InvokeKind.Direct, InvokeKind.Static, InvokeKind.Interface];
+
+function scanCode(r: ByteReader, start: number, units: number, refs: Refs, m: MethodScratch, sizes: { strings: number; methods: number; fields: number; types: number }): void {
   // The caller checked that all `units` code units lie inside the file: they are read directly.
   const b = r.bytes;
   const unit = (pc: number) => b[start + 2 * pc] | (b[start + 2 * pc + 1] << 8);
@@ -358,10 +478,24 @@ function scanCode(r: ByteReader, start: number, units: number, refs: Refs, sizes
     const w = WIDTH[op];
     if (w === 0) throw new DexError(`instruction ${op.toString(16).padStart(2, "0")} at ${pc} is not a Dalvik opcode`);
     if (pc + w > units) throw new DexError(`instruction at ${pc} runs past the method's ${units} code units`);
-    if (op === 0x1a) note(refs.s, refs.seen.s, refs.stamp, unit(pc + 1), sizes.strings, "const-string");
-    else if (op === 0x1b) note(refs.s, refs.seen.s, refs.stamp, unit(pc + 1) | (unit(pc + 2) << 16), sizes.strings, "const-string/jumbo");
-    else if ((op >= 0x6e && op <= 0x72) || (op >= 0x74 && op <= 0x78) || op === 0xfa || op === 0xfb) note(refs.m, refs.seen.m, refs.stamp, unit(pc + 1), sizes.methods, "invoke");
-    else if (op >= 0x52 && op <= 0x6d) note(refs.f, refs.seen.f, refs.stamp, unit(pc + 1), sizes.fields, "field access");
+    if (op === 0x1a || op === 0x1b) {
+      const i = op === 0x1a ? unit(pc + 1) : unit(pc + 1) | (unit(pc + 2) << 16);
+      const what = op === 0x1a ? "const-string" : "const-string/jumbo";
+      note(refs.s, refs.seen.s, refs.stamp, i, sizes.strings, what);
+      note(m.s, m.seen.s, m.stamp, i, sizes.strings, what);
+    } else if ((op >= 0x6e && op <= 0x72) || (op >= 0x74 && op <= 0x78) || op === 0xfa || op === 0xfb) {
+      const i = unit(pc + 1);
+      note(refs.m, refs.seen.m, refs.stamp, i, sizes.methods, "invoke");
+      // A method called two ways (rare) keeps its first kind.
+      if (m.seen.m[i] !== m.stamp) {
+        m.seen.m[i] = m.stamp;
+        m.inv.push(i * 8 + (op >= 0xfa ? InvokeKind.Polymorphic : KIND_OF[(op - 0x6e) % 6]));
+      }
+    } else if (op >= 0x52 && op <= 0x6d) {
+      const i = unit(pc + 1);
+      note(refs.f, refs.seen.f, refs.stamp, i, sizes.fields, "field access");
+      note(m.f, m.seen.f, m.stamp, i, sizes.fields, "field access");
+    } else if (op === 0x22 || op === 0x1c) note(m.t, m.seen.t, m.stamp, unit(pc + 1), sizes.types, op === 0x22 ? "new-instance" : "const-class");
     pc += w;
   }
 }

@@ -257,6 +257,10 @@ function readApplication(rd: Reader, app: XmlElement, m: Manifest, pending: { el
   set("requestLegacyExternalStorage", rd.bool(app, "requestLegacyExternalStorage"));
   set("testOnly", rd.bool(app, "testOnly"));
   flags.networkSecurityConfig = rd.attr(app, "networkSecurityConfig") !== undefined;
+  for (const [key, attr] of [["className", "name"], ["backupAgent", "backupAgent"], ["appComponentFactory", "appComponentFactory"]] as const) {
+    const v = rd.string(app, attr);
+    if (v) flags[key] = qualifyClassName(m.package, v);
+  }
   for (const el of app.children) {
     if (COMPONENT_KINDS.has(el.name as ComponentKind)) pending.push({ el, kind: el.name as ComponentKind });
     else if (el.name === "meta-data") {

@@ -123,6 +123,10 @@ export interface ApplicationFlags {
   networkSecurityConfig: boolean;
   requestLegacyExternalStorage?: boolean;
   testOnly?: boolean;
+  /** Classes the platform instantiates by name (android:name, android:backupAgent, android:appComponentFactory), qualified. */
+  className?: string;
+  backupAgent?: string;
+  appComponentFactory?: string;
 }
 
 export interface MetaData {

@@ -2,6 +2,7 @@
  * `trim`: the requested permissions worth removing (or limiting), ranked by how much each lowers the
  * risk, with the exact change to the source manifest.
  */
+import type { CodeStatus } from "../code-evidence.js";
 import { requestedPermissionNames, type Manifest, type RequestedPermission } from "../../extract/manifest/model.js";
 import type { CheckResult } from "../judge.js";
 import type { PermissionOrigin } from "../merge-report.js";
@@ -32,7 +33,7 @@ export interface TrimCandidate {
   /** Why removing (or limiting) it is safe (report/trim-delta.ts words each); empty when it is not. */
   safe: SafeReason[];
   /** What the app's code shows for it, when the code was read (docs/code-evidence.md). */
-  code?: { status: "used" | "not-seen" | "not-mappable"; users: string[] };
+  code?: { status: CodeStatus; users: string[] };
 }
 
 /** Why acting on a candidate is safe, one a reason. */
@@ -121,8 +122,9 @@ export function planTrim(
     for (const c of candidates) c.riskWithout = options.riskWithout(requested.filter((p) => p !== c.permission));
   }
   for (const c of candidates) c.reasons.sort((a, b) => levelRank(b.level) - levelRank(a.level));
-  // A permission the code uses ranks after every one it does not: removing it breaks that code.
-  const usedTier = (c: TrimCandidate) => (c.code?.status === "used" ? 1 : 0);
+  // Not seen, or only in unreached code, first; then what the code cannot show (not mappable, code unread);
+  // a permission the code uses after every other: removing it breaks that code.
+  const usedTier = (c: TrimCandidate) => (c.code?.status === "used" ? 2 : c.code?.status === "not-seen" || c.code?.status === "unreached" ? 0 : 1);
   candidates.sort(
     (a, b) =>
       usedTier(a) - usedTier(b) ||
