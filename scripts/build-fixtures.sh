@@ -57,7 +57,7 @@ build2 beamtorch beamtorch
 # Modern apps (targets 34-35, typed foreground services, Health Connect, self-managed calls): aapt2 knows
 # only the service-type flags of the framework it links against (API 29), so each is linked with its types
 # set to dataSync and the real flags are written into the binary manifest afterwards.
-for name in stridecoach lumenedit harbourtalk quillnote quillnote-test snapqr; do
+for name in stridecoach lumenedit harbourtalk quillnote quillnote-test snapqr echomemo; do
   sed -E 's/android:foregroundServiceType="[^"]*"/android:foregroundServiceType="dataSync"/' "$APPS/$name/AndroidManifest.xml" > "$WORK/$name-AndroidManifest.xml"
   aapt2 link -I "$FRAMEWORK" --manifest "$WORK/$name-AndroidManifest.xml" -o "$WORK/$name.apk"
   node scripts/patch-service-types.mjs "$APPS/$name/AndroidManifest.xml" "$WORK/$name.apk" "$APK/$name.apk"
@@ -109,6 +109,24 @@ if command -v smali >/dev/null && command -v dexdump >/dev/null; then
   cp fixtures/dex/beamtorch-classes2.dex "$WORK/code/classes2.dex"
   (cd "$WORK/code" && aapt add -v beamtorch-code.apk classes.dex classes2.dex >/dev/null)
   cp "$WORK/code/beamtorch-code.apk" "$APK/beamtorch-code.apk"
+  # Apps whose code exercises the call graph (fixtures/smali/<app>/classes*/): assembled, dumped, added to the APK.
+  for app in echomemo callgraph; do
+    [ -d "fixtures/smali/$app" ] || continue
+    rm -rf "$WORK/code-$app" && mkdir -p "$WORK/code-$app"
+    [ -f "$APK/$app.apk" ] && cp "$APK/$app.apk" "$WORK/code-$app/$app.apk"
+    parts=()
+    for dir in fixtures/smali/$app/classes*/; do
+      part=$(basename "$dir")
+      smali assemble -o "fixtures/dex/$app-$part.dex" "$dir"
+      dexdump -d "fixtures/dex/$app-$part.dex" > "$DUMPS/$app-$part.dexdump.txt"
+      cp "fixtures/dex/$app-$part.dex" "$WORK/code-$app/$part.dex"
+      parts+=("$part.dex")
+    done
+    if [ -f "$WORK/code-$app/$app.apk" ]; then
+      (cd "$WORK/code-$app" && aapt add -v "$app.apk" "${parts[@]}" >/dev/null)
+      cp "$WORK/code-$app/$app.apk" "$APK/$app.apk"
+    fi
+  done
 fi
 
 for f in "$APK"/*.apk; do

@@ -101,7 +101,8 @@ export function codeSummary(code: CodeEvidence): string {
   const count = (st: string) => code.permissions.filter((p) => p.status === st).length;
   const files = `${code.read.length} dex ${code.read.length === 1 ? "file" : "files"} read`;
   const problems = code.problems.length ? `; ${code.problems.join("; ")}` : "";
-  return `${files}: ${count("used")} of ${code.permissions.length} requested permissions used, ${count("not-seen")} not seen, ${count("not-mappable")} not mappable${problems}`;
+  const unreached = count("unreached") ? `, ${count("unreached")} only in code never reached` : "";
+  return `${files}: ${count("used")} of ${code.permissions.length} requested permissions used${unreached}, ${count("not-seen")} not seen, ${count("not-mappable")} not mappable${problems}`;
 }
 
 export function checkToText(runs: CheckRun[], info: CheckRunInfo, s: Style = PLAIN): string {

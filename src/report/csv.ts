@@ -5,7 +5,7 @@
 import type { AppRow } from "../score/row.js";
 import { csvCell } from "../util/csv.js";
 
-export const ROW_CSV_COLUMNS = ["id", "size", "mtimeMs", "status", "package", "versionName", "versionCode", "category", "fallback", "risk", "band", "errors", "warnings", "notes", "checks", "errorKind", "errorMessage", "findings", "atypicality", "riskAtPrevalence", "codeUsed", "codeNotSeen", "codeNotMappable", "codeLibraryOnly", "codeProblems", "permissions"] as const;
+export const ROW_CSV_COLUMNS = ["id", "size", "mtimeMs", "status", "package", "versionName", "versionCode", "category", "fallback", "risk", "band", "errors", "warnings", "notes", "checks", "errorKind", "errorMessage", "findings", "atypicality", "riskAtPrevalence", "codeUsed", "codeNotSeen", "codeNotMappable", "codeLibraryOnly", "codeProblems", "permissions", "codeUnreached"] as const;
 
 export function csvHeader(): string {
   return `${ROW_CSV_COLUMNS.join(",")}\n`;
@@ -39,6 +39,7 @@ export function rowToCsv(r: AppRow): string {
     codeNotMappable: r.code?.notMappable.join(" "),
     codeLibraryOnly: r.code?.libraryOnly.join(" "),
     codeProblems: r.code?.problems.join(" | "),
+    codeUnreached: r.code?.unreached?.join(" "),
     // The requested permissions, space-separated, for joining with other inventory sheets.
     permissions: r.permissions?.join(" "),
     findings: r.findings?.map((f) => `${f.level} ${f.checkId} ${f.subject}${f.message ? `: ${f.message}` : ""}`).join(" | "),
@@ -50,8 +51,8 @@ const list = (cell: string) => (cell ? cell.split(" ") : []);
 
 /** The summary columns of a CSV row written by rowToCsv, or undefined when the fields are not such a row. */
 export function rowFromCsv(f: readonly string[]): AppRow | undefined {
-  // Outputs written before the permissions column have one column fewer; they are read the same.
-  if ((f.length !== ROW_CSV_COLUMNS.length && f.length !== ROW_CSV_COLUMNS.length - 1) || !f[0] || f[0] === "id") return undefined;
+  // Outputs written before the permissions column (and the codeUnreached one) have one or two columns fewer; they are read the same.
+  if (f.length > ROW_CSV_COLUMNS.length || f.length < ROW_CSV_COLUMNS.length - 2 || !f[0] || f[0] === "id") return undefined;
   const risk = f[9] ? Number(f[9]) : undefined;
   return {
     id: f[0],
@@ -64,6 +65,6 @@ export function rowFromCsv(f: readonly string[]): AppRow | undefined {
     ...(f[8] ? { fallback: f[8] } : {}),
     ...(f[18] ? { atypicality: Number(f[18]) } : {}),
     ...(f[25] ? { permissions: list(f[25]) } : {}),
-    ...(f[20] || f[21] || f[22] || f[24] ? { code: { used: list(f[20]), notSeen: list(f[21]), notMappable: list(f[22]), libraryOnly: list(f[23]), problems: f[24] ? f[24].split(" | ") : [] } } : {}),
+    ...(f[20] || f[21] || f[22] || f[24] || f[26] ? { code: { used: list(f[20]), ...(f[26] ? { unreached: list(f[26]) } : {}), notSeen: list(f[21]), notMappable: list(f[22]), libraryOnly: list(f[23]), problems: f[24] ? f[24].split(" | ") : [] } } : {}),
   };
 }

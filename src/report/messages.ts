@@ -35,6 +35,11 @@ export const MESSAGES: Readonly<Record<string, Message>> = {
       : `special access the user grants by hand in settings${f.data.gives ? `: it ${f.data.gives}` : ""}; stores ask developers to justify it`,
   "background-location-alone": () => "requested without ACCESS_FINE_LOCATION or ACCESS_COARSE_LOCATION: background location extends one of those and grants nothing on its own",
   "exported-missing": (f) => `${f.data.kind} has an intent filter but no android:exported: at targetSdk ${f.data.targetSdk} the platform refuses to install the app; set android:exported="false" (or "true" if other apps must reach it)`,
+  "permission-redelegation": (f) => {
+    const d = f.data as { kind: string; permission: string; level: string; gives: string; path: string[]; guard?: string; openBecause: string };
+    const open = { none: "no permission", normal: `only ${short(d.guard ?? "")}, which any app gets at install`, undeclared: `${d.guard}, which nothing declares (any app can declare it first)`, "own-normal": `${d.guard}, a normal-level permission any app gets`, "own-dangerous": `${d.guard}, a dangerous-level permission any app can ask for` }[d.openBecause] ?? "no permission";
+    return `any app can reach this ${d.kind} (it requires ${open}), and its code uses ${short(d.permission)} (${d.level}${d.gives ? `: ${d.gives}` : ""}) on the caller's behalf: ${d.path.join(" → ")}`;
+  },
   "exported-unguarded": (f) => `${f.data.kind} reachable by any app without a permission (${f.data.reason === "explicit" ? 'android:exported="true"' : "exported by default because of its intent filter, targetSdk below 31"})`,
   "no-effect-at-target": (f) => {
     const d = f.data as { targetSdk: number; minSdk?: number; why: string; instead?: string[]; stillUsedBelow?: number; limitTo?: number };

@@ -20,6 +20,7 @@ const SAFE_BECAUSE: Record<SafeReason, string> = {
   "no-such-permission": "the platform defines no such permission",
   "forbidden-by-policy": "a policy in force forbids it",
   "not-seen-in-code": "the code's entry points reach nothing the permission maps tie to it (not proof: reflection and native code are not seen)",
+  "not-seen-in-code-some-hidden": "the code's entry points reach nothing the permission maps tie to it, but this app loads code at run time or reflects on names built at run time, which no map sees: check before removing",
   "nothing-in-manifest-needs-it": "no component, service type or declaration in the manifest needs it",
   "nothing-in-manifest-needs-it-code-unread": "no component, service type or declaration in the manifest needs it (check the code before removing)",
 };
@@ -128,7 +129,7 @@ export function deltaToText(d: Delta, files: [string, string], caution: string |
   if (d.code) {
     const c = d.code;
     out.push("", s.bold(`Code evidence (${c.appeared.length} appeared, ${c.vanished.length} vanished)`));
-    const line = (sign: string, e: (typeof c.appeared)[number]) => wrap(`  ${sign} ${evidenceLabel(e)} — ${e.permissions.map(short).join(" or ")}${e.packages.length ? ` (${e.packages.join(", ")})` : ""}`, 80, 6);
+    const line = (sign: string, e: (typeof c.appeared)[number]) => wrap(`  ${sign} ${evidenceLabel(e)} — ${e.permissions.map(short).join(" or ")}${e.packages.length ? ` (${e.packages.join(", ")})` : ""}${e.reached ? "" : ", never reached"}`, 80, 6);
     for (const e of c.appeared) out.push(...line("+", e));
     for (const e of c.vanished) out.push(...line("-", e));
     for (const p of c.statusChanged) out.push(...wrap(`  ${short(p.permission)}: ${p.before} → ${p.after}`, 80, 6));

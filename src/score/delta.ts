@@ -75,8 +75,9 @@ export function deltaWorst(d: Delta): Level | undefined {
 
 export interface CodeDelta {
   /** Evidence (an API, URI, field, action or receiver) present now and not before, with the permissions it needs. */
-  appeared: { kind: EvidenceItem["kind"]; what: string; permissions: string[]; packages: string[] }[];
-  vanished: { kind: EvidenceItem["kind"]; what: string; permissions: string[]; packages: string[] }[];
+  /** Evidence in one version and not the other; `reached` false: only in code no entry point reaches. */
+  appeared: { kind: EvidenceItem["kind"]; what: string; permissions: string[]; packages: string[]; reached: boolean }[];
+  vanished: { kind: EvidenceItem["kind"]; what: string; permissions: string[]; packages: string[]; reached: boolean }[];
   /** Permissions requested in both versions whose code status changed (`not-seen` → `used` …). */
   statusChanged: { permission: string; before: string; after: string }[];
 }
@@ -87,7 +88,7 @@ function evidenceOf(code: CodeEvidence): Map<string, CodeDelta["appeared"][numbe
   const add = (e: EvidenceItem, permissions: readonly string[]) => {
     const key = `${e.kind} ${e.what}`;
     const had = out.get(key);
-    out.set(key, { kind: e.kind, what: e.what, permissions: [...new Set([...(had?.permissions ?? []), ...permissions])].sort(), packages: e.packages });
+    out.set(key, { kind: e.kind, what: e.what, permissions: [...new Set([...(had?.permissions ?? []), ...permissions])].sort(), packages: e.packages, reached: e.reached || (had?.reached ?? false) });
   };
   for (const p of code.permissions) for (const e of p.evidence) add(e, [p.permission]);
   for (const u of code.unrequested) for (const e of u.evidence) add(e, u.permissions);

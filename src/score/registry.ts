@@ -5,6 +5,7 @@ import { exportedMissing } from "./checks/exported-missing.js";
 import { exportedUnguarded } from "./checks/exported-unguarded.js";
 import { noEffectAtTarget } from "./checks/no-effect-at-target.js";
 import { notSeenInCode } from "./checks/not-seen-in-code.js";
+import { permissionRedelegation } from "./checks/permission-redelegation.js";
 import { sensitiveUncommon } from "./checks/sensitive-uncommon.js";
 import { serviceTypePermission } from "./checks/service-type-permission.js";
 import { specialAccessComponent } from "./checks/special-access-component.js";
@@ -24,6 +25,7 @@ export const CHECKS: readonly Check[] = [
   exportedUnguarded,
   noEffectAtTarget,
   notSeenInCode,
+  permissionRedelegation,
   sensitiveUncommon,
   serviceTypePermission,
   specialAccessComponent,

@@ -58,6 +58,8 @@ export interface RowFinding {
 /** A row's code evidence: requested permissions by what the code shows, sorted. */
 export interface RowCode {
   used: string[];
+  /** Evidence only in code no entry point reaches (absent in rows written before the call graph). */
+  unreached?: string[];
   notSeen: string[];
   notMappable: string[];
   /** Used, but only by bundled libraries' packages (a subset of `used`). */
@@ -71,6 +73,7 @@ export function rowCode(code: CodeEvidence): RowCode {
   const by = (status: PermissionEvidence["status"]) => code.permissions.filter((p) => p.status === status).map((p) => p.permission).sort();
   return {
     used: by("used"),
+    unreached: by("unreached"),
     notSeen: by("not-seen"),
     notMappable: by("not-mappable"),
     libraryOnly: code.permissions.filter((p) => p.onlyLibraries).map((p) => p.permission).sort(),

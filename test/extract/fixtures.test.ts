@@ -24,7 +24,7 @@ function comparable(m: Manifest): unknown {
 
 describe("fixture APKs built by the Android toolchain", () => {
   it("has the variants the tests rely on", () => {
-    expect(APK_VARIANTS).toEqual(["beamtorch", "beamtorch-code", "chirpchat", "flashdeck", "harbourtalk", "lumenedit", "pocketlamp", "quillnote", "quillnote-test", "snapqr", "snapshare", "stridecoach", "tidewatch", "tidewatch-next", "tidewatch-stored", "townsquare", "townsquare-nons"]);
+    expect(APK_VARIANTS).toEqual(["beamtorch", "beamtorch-code", "chirpchat", "echomemo", "flashdeck", "harbourtalk", "lumenedit", "pocketlamp", "quillnote", "quillnote-test", "snapqr", "snapshare", "stridecoach", "tidewatch", "tidewatch-next", "tidewatch-stored", "townsquare", "townsquare-nons"]);
   });
 
   for (const variant of APK_VARIANTS) {

@@ -16,9 +16,24 @@ describe("the API → permission maps", () => {
     const lines = readFileSync(`${ROOT}src/platform/data/code-evidence-extra.tsv`, "utf8").trim().split("\n").slice(1);
     for (const l of lines) {
       const [kind, key, permissions, source] = l.split("\t");
-      expect(["method", "field", "string", "action"], l).toContain(kind);
+      expect(["method", "field", "string", "action", "class"], l).toContain(kind);
       expect(key && permissions && source, l).toBeTruthy();
     }
+  });
+
+  it("has a source for every framework superclass and a reason for every correction", () => {
+    for (const file of ["framework-superclasses", "code-evidence-corrections"]) {
+      const [head, ...rows] = readFileSync(`${ROOT}src/platform/data/${file}.tsv`, "utf8").trim().split("\n");
+      const width = head.split("\t").length;
+      for (const l of rows) {
+        const cells = l.split("\t");
+        expect(cells, l).toHaveLength(width);
+        expect(cells.every(Boolean), l).toBe(true);
+        // Each row's source is a reference page or says "from memory".
+        expect(cells[width - 1], l).toMatch(/^(https:\/\/developer\.android\.com\/|from memory: )/);
+      }
+    }
+    expect(map.frameworkSuper.get("android.app.Service")).toBe("android.content.ContextWrapper");
   });
 
   it("finds a content URI by its authority, whatever path or query follows", () => {

@@ -22,7 +22,7 @@ export interface PageRow {
   findings: PageFinding[];
   whatIf: { permission: string; without: number }[];
   /** Code evidence (requested permissions by what the code shows); null when the code was not read. */
-  code: { used: string[]; notSeen: string[]; notMappable: string[]; libraryOnly: string[]; problems: string[] } | null;
+  code: { used: string[]; unreached?: string[]; notSeen: string[]; notMappable: string[]; libraryOnly: string[]; problems: string[] } | null;
   error: string | null;
 }
 

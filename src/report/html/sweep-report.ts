@@ -80,7 +80,7 @@ export function sweepToHtml(input: SweepReportInput): string {
   <label>Category <select id="f-category"><option value="">all</option></select></label>
   <label>Band <select id="f-band"><option value="">all</option><option>high</option><option>elevated</option><option>low</option><option value="failed">could not be read</option></select></label>
   <label>Check <select id="f-check"><option value="">any</option></select></label>
-  <label>Code <select id="f-code"><option value="">any</option><option value="not-seen">requests a permission not seen in code</option><option value="library-only">a permission used only by a library</option><option value="problems">code could not be read</option><option value="none">code not read</option></select></label>
+  <label>Code <select id="f-code"><option value="">any</option><option value="not-seen">requests a permission not seen in reached code</option><option value="library-only">a permission used only by a library</option><option value="problems">code could not be read</option><option value="none">code not read</option></select></label>
   <label>Atypical <select id="f-atypical"><option value="">any</option><option value="90">above the 90th percentile</option><option value="95">above the 95th</option><option value="99">above the 99th</option></select></label>
   <label>Search <input type="search" id="f-text" placeholder="package or file"></label>
   <span class="legend" id="shown"></span>
@@ -95,7 +95,7 @@ export function sweepToHtml(input: SweepReportInput): string {
     <th data-key="errors" aria-sort="none" class="num" title="findings of level error (an app that will not install, …); sorted by errors, then warnings, then notes">Errors</th>
     <th data-key="warnings" aria-sort="none" class="num">Warnings</th>
     <th data-key="notes" aria-sort="none" class="num">Notes</th>
-    <th data-key="code" aria-sort="none" class="num" title="requested permissions the app's code was not seen to use (code evidence)">Not seen in code</th>
+    <th data-key="code" aria-sort="none" class="num" title="requested permissions the app's code was not seen to use, or uses only in code no entry point reaches (code evidence)">Not seen in code</th>
   </tr></thead>
   <tbody></tbody>
 </table>

@@ -12,7 +12,7 @@
  * - a string constant that names an app class, in reached code, instantiates it (constant-string reflection),
  *   and other string constants of the same method name methods of those classes (getMethod("name")).
  */
-import { InvokeKind, methodCode, javaName } from "../../extract/dex/dex.js";
+import { ACC, InvokeKind, methodCode, javaName } from "../../extract/dex/dex.js";
 import { OBJECT, type ClassNode, type MethodNode, type Program } from "./program.js";
 
 /** Methods of java.lang.Object the runtime itself calls on any object (toString by string building, …). */
@@ -135,12 +135,22 @@ export function entryClasses(p: Program, manifestClasses: readonly string[]): Cl
     const c = p.byJavaName(name);
     if (c) out.add(c);
   }
-  for (const c of p.classes.values()) if (!(c.def.accessFlags & 0x0400) && p.ancestors(c.descriptor).some((a) => INFLATED.has(a))) out.add(c);
+  for (const c of p.classes.values()) if (!(c.def.accessFlags & ACC.ABSTRACT) && p.ancestors(c.descriptor).some((a) => INFLATED.has(a))) out.add(c);
   return [...out];
 }
 
+export interface ReachOptions {
+  /** Methods reached from the start besides the entry classes' (a test's `main`). */
+  roots?: readonly MethodNode[];
+  /**
+   * Class hierarchy analysis alone: a virtual call dispatches to every class below the named one, created
+   * or not (the coarser graph RTA refines; for comparison and tests).
+   */
+  cha?: boolean;
+}
+
 /** The rapid-type-analysis fixpoint from the entry classes. */
-export function reachability(p: Program, entries: readonly ClassNode[]): Reachability {
+export function reachability(p: Program, entries: readonly ClassNode[], options: ReachOptions = {}): Reachability {
   const reached = new Uint8Array(p.methods.length);
   const queue: MethodNode[] = [];
   const instantiated = new Set<string>();
@@ -180,6 +190,17 @@ export function reachability(p: Program, entries: readonly ClassNode[]): Reachab
     }
   };
   const walk: Walk = { program: p, dispatch, edge, virtualCall, instantiate };
+  if (options.cha) {
+    for (const c of p.classes.values()) {
+      if (c.def.accessFlags & (ACC.ABSTRACT | ACC.INTERFACE)) continue;
+      for (const a of p.ancestors(c.descriptor)) {
+        let list = dispatch.get(a);
+        if (!list) dispatch.set(a, (list = []));
+        list.push(c);
+      }
+    }
+  }
+  for (const m of options.roots ?? []) edge(m);
   for (const c of entries) instantiate(c);
   while (queue.length) {
     const m = queue.pop()!;

@@ -45,6 +45,7 @@ export type SafeReason =
   | "no-such-permission"
   | "forbidden-by-policy"
   | "not-seen-in-code"
+  | "not-seen-in-code-some-hidden"
   | "nothing-in-manifest-needs-it"
   | "nothing-in-manifest-needs-it-code-unread";
 
@@ -116,6 +117,8 @@ export function planTrim(
     if (e) c.code = { status: e.status, users: e.users };
     // A permission the code uses is not safe to remove, whatever else is said of it.
     c.safe = e?.status === "used" ? [] : safety(c);
+    // Code the app loads at run time, or reaches by names built at run time, is out of the maps' sight.
+    if (result.code?.blind.some((b) => b.kind !== "native-code")) c.safe = c.safe.map((r) => (r === "not-seen-in-code" ? "not-seen-in-code-some-hidden" : r));
   }
   const requested = requestedPermissionNames(m);
   if (options.riskWithout) {

@@ -97,7 +97,7 @@ const codeFilter = byId<HTMLSelectElement>("f-code");
 function codeMatches(r: PageRow, want: string): boolean {
   const c = r.code;
   switch (want) {
-    case "not-seen": return !!c && c.notSeen.length > 0;
+    case "not-seen": return !!c && c.notSeen.length + (c.unreached?.length ?? 0) > 0;
     case "library-only": return !!c && c.libraryOnly.length > 0;
     case "problems": return !!c && c.problems.length > 0;
     case "none": return !c && r.status === "scored";
@@ -116,7 +116,7 @@ function sortValue(r: PageRow, key: string): string | number {
     case "errors": return r.counts ? r.counts.error * 1e6 + r.counts.warning * 1e3 + r.counts.note : -1;
     case "warnings": return r.counts ? r.counts.warning * 1e3 + r.counts.note : -1;
     case "notes": return r.counts ? r.counts.note : -1;
-    case "code": return r.code ? r.code.notSeen.length : -1;
+    case "code": return r.code ? r.code.notSeen.length + (r.code.unreached?.length ?? 0) : -1;
     default: return 0;
   }
 }
@@ -162,7 +162,7 @@ function render(): void {
     tr.appendChild(el("td", { class: `num${r.counts?.error ? " lvl-error" : ""}` }, r.counts ? String(r.counts.error) : "—"));
     tr.appendChild(el("td", { class: "num" }, r.counts ? String(r.counts.warning) : "—"));
     tr.appendChild(el("td", { class: "num" }, r.counts ? String(r.counts.note) : "—"));
-    tr.appendChild(el("td", { class: "num", title: r.code ? "" : "code not read" }, r.code ? String(r.code.notSeen.length) : "—"));
+    tr.appendChild(el("td", { class: "num", title: r.code ? "" : "code not read" }, r.code ? String(r.code.notSeen.length + (r.code.unreached?.length ?? 0)) : "—"));
     const details = el("tr", { class: "details", hidden: "" });
     const td = el("td", { colspan: "9" });
     if (r.error) td.appendChild(el("div", { class: "lvl-error" }, `Could not be read: ${r.error}`));
@@ -185,7 +185,7 @@ function render(): void {
     if (r.code) {
       const c = r.code;
       const line = (label: string, list: string[]) => (list.length ? `${label}: ${list.map(short).join(", ")}` : "");
-      const parts = [line("Used in code", c.used), line("used only by libraries", c.libraryOnly), line("not seen in code", c.notSeen), line("no map covers", c.notMappable)].filter(Boolean);
+      const parts = [line("Used in code", c.used), line("used only by libraries", c.libraryOnly), line("only in code never reached", c.unreached ?? []), line("not seen in code", c.notSeen), line("no map covers", c.notMappable)].filter(Boolean);
       if (parts.length) td.appendChild(el("div", { class: "legend" }, `Code evidence — ${parts.join("; ")}.`));
       for (const p of c.problems) td.appendChild(el("div", { class: "lvl-warning" }, p));
     }
