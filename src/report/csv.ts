@@ -65,6 +65,6 @@ export function rowFromCsv(f: readonly string[]): AppRow | undefined {
     ...(f[8] ? { fallback: f[8] } : {}),
     ...(f[18] ? { atypicality: Number(f[18]) } : {}),
     ...(f[25] ? { permissions: list(f[25]) } : {}),
-    ...(f[20] || f[21] || f[22] || f[24] || f[26] ? { code: { used: list(f[20]), ...(f[26] ? { unreached: list(f[26]) } : {}), notSeen: list(f[21]), notMappable: list(f[22]), libraryOnly: list(f[23]), problems: f[24] ? f[24].split(" | ") : [] } } : {}),
+    ...(f[20] || f[21] || f[22] || f[24] || f[26] ? { code: { used: list(f[20]), ...(f.length === ROW_CSV_COLUMNS.length ? { unreached: list(f[26]) } : {}), notSeen: list(f[21]), notMappable: list(f[22]), libraryOnly: list(f[23]), problems: f[24] ? f[24].split(" | ") : [] } } : {}),
   };
 }

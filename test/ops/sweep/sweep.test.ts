@@ -145,7 +145,7 @@ describe("overask sweep", () => {
     const out = join(base, "out.csv");
     await cli(["sweep", dir, "-o", out, "-b", DEMO, "-j", "1", "--format", "csv"]);
     const text = readFileSync(out, "utf8");
-    expect(text.split("\n")[0]).toBe("id,size,mtimeMs,status,package,versionName,versionCode,category,fallback,risk,band,errors,warnings,notes,checks,errorKind,errorMessage,findings,atypicality,riskAtPrevalence,codeUsed,codeNotSeen,codeNotMappable,codeLibraryOnly,codeProblems,permissions");
+    expect(text.split("\n")[0]).toBe("id,size,mtimeMs,status,package,versionName,versionCode,category,fallback,risk,band,errors,warnings,notes,checks,errorKind,errorMessage,findings,atypicality,riskAtPrevalence,codeUsed,codeNotSeen,codeNotMappable,codeLibraryOnly,codeProblems,permissions,codeUnreached");
     const inputs = readdirSync(APK_DIR).filter((f) => f.endsWith(".apk")).length + 2;
     expect(text.trim().split("\n")).toHaveLength(inputs + 1);
     const { stdout } = await cli(["sweep", dir, "-o", out, "-b", DEMO, "-j", "1", "--format", "csv", "--resume"]);
@@ -166,6 +166,7 @@ describe("overask sweep", () => {
     // from the smali source and the published map).
     expect(withCode.code).toEqual({
       used: ["android.permission.READ_CONTACTS", "android.permission.READ_SMS"],
+      unreached: [],
       notSeen: ["android.permission.CAMERA", "android.permission.POST_NOTIFICATIONS"],
       notMappable: ["android.permission.ACCESS_BACKGROUND_LOCATION"],
       libraryOnly: [],
@@ -211,7 +212,7 @@ describe("overask sweep", () => {
       expect(row.whatIf ?? []).toEqual((c.risk?.whatIf ?? []).filter((w: { change: number }) => w.change < 0).slice(0, 5).map((w: { permission: string; without: number }) => ({ permission: w.permission, without: w.without })));
       if (c.code) {
         const by = (s: string) => c.code.permissions.filter((p: { status: string }) => p.status === s).map((p: { permission: string }) => p.permission).sort();
-        expect(row.code).toEqual({ used: by("used"), notSeen: by("not-seen"), notMappable: by("not-mappable"), libraryOnly: c.code.permissions.filter((p: { onlyLibraries: boolean }) => p.onlyLibraries).map((p: { permission: string }) => p.permission).sort(), problems: c.code.problems });
+        expect(row.code).toEqual({ used: by("used"), unreached: by("unreached"), notSeen: by("not-seen"), notMappable: by("not-mappable"), libraryOnly: c.code.permissions.filter((p: { onlyLibraries: boolean }) => p.onlyLibraries).map((p: { permission: string }) => p.permission).sort(), problems: c.code.problems });
       } else expect(row.code).toBeUndefined();
     }
   }, 120_000);
