@@ -5,7 +5,7 @@
 //   node scripts/bench.mjs [--only extract] [--sizes 5,50,200] [--reps 15]
 //   node scripts/bench.mjs --only sweep [--sweep-sets typo,small,code,large] [--sweep-typo 3000]
 import { execFileSync, spawn, spawnSync } from "node:child_process";
-import { closeSync, copyFileSync, existsSync, fstatSync, mkdirSync, openSync, readFileSync, readSync, readdirSync, rmSync, writeFileSync, openSync as open2, writeSync } from "node:fs";
+import { closeSync, copyFileSync, existsSync, fstatSync, mkdirSync, openSync, readFileSync, readSync, readdirSync, rmSync, statSync, writeFileSync, openSync as open2, writeSync } from "node:fs";
 import { randomBytes } from "node:crypto";
 import { join } from "node:path";
 import { inflateRawSync, deflateRawSync, crc32 } from "node:zlib";
@@ -503,6 +503,86 @@ if (ONLY.includes("code") && hasSmali) {
   console.log(`node -e 0 (process start floor): median ${fmt(median(startup))} ms`);
   console.log(`check --no-code:                 median ${fmt(median(without))} ms`);
   console.log(`check (code evidence, 3 dex):    median ${fmt(median(withCode))} ms = ${(median(withCode) / median(without)).toFixed(2)}x check --no-code`);
+
+  header("dex reading + call graph: the same 10 MB dex, against the id-table floor");
+  const manifestModel = lib.readManifestBytes(readFileSync(join(ROOT, "fixtures/apk/beamtorch.apk")));
+  const graphT = [];
+  for (let i = 0; i < 5; i++) {
+    const t = process.hrtime.bigint();
+    lib.codeEvidence(manifestModel, [{ entry: "classes.dex", dex: lib.readDex(dex) }]);
+    graphT.push(ms(t));
+  }
+  console.log(`readDex + hierarchy + call graph + evidence: median ${fmt(median(graphT))} ms = ${(median(graphT) / median(floorT)).toFixed(2)}x the floor (goal within 5x)`);
+
+  // An APK of realistic shape: 11 dex files, ~9,900 classes, almost all library code that calls within its
+  // library, implements framework listeners and reaches mapped APIs; the app's activity calls into a few libraries.
+  header("check on a multi-dex APK of realistic shape (whole CLI run, peak RSS)");
+  const DEXES = Number(opt("real-dexes", "11"));
+  const PER = Number(opt("real-classes", "900"));
+  const realApk = join(OUT, "realistic.apk");
+  if (!existsSync(realApk)) {
+    const t0 = process.hrtime.bigint();
+    const apis = [
+      "invoke-virtual {v1}, Landroid/telephony/TelephonyManager;->getLine1Number()Ljava/lang/String;",
+      "invoke-virtual {v1}, Landroid/net/ConnectivityManager;->getActiveNetworkInfo()Landroid/net/NetworkInfo;",
+      "invoke-virtual {v1}, Landroid/os/PowerManager$WakeLock;->acquire()V",
+      "invoke-virtual {v1}, Ljava/lang/Object;->hashCode()I",
+      "invoke-virtual {v1}, Ljava/lang/Object;->toString()Ljava/lang/String;",
+    ];
+    const entries = [];
+    for (let d = 0; d < DEXES; d++) {
+      const dir = join(OUT, `real-smali-${d}`);
+      mkdirSync(dir, { recursive: true });
+      const pkg = d === 0 ? "org/example/beamtorch" : `org/example/lib${d}`;
+      for (let c = 0; c < PER; c++) {
+        const cls = `L${pkg}/p${c % 30}/K${c};`;
+        const next = `L${pkg}/p${(c + 1) % 30}/K${(c + 1) % PER};`;
+        const lines = [`.class public ${cls}`, ".super Ljava/lang/Object;", c % 5 === 0 ? ".implements Ljava/lang/Runnable;" : "", ""];
+        lines.push(".method public constructor <init>()V", "    .registers 1", "    invoke-direct {p0}, Ljava/lang/Object;-><init>()V", "    return-void", ".end method", "");
+        if (c % 5 === 0) lines.push(".method public run()V", "    .registers 2", `    invoke-static {}, ${next}->s0()V`, "    return-void", ".end method", "");
+        for (let m = 0; m < 8; m++) {
+          lines.push(`.method public static s${m}()V`, "    .registers 3", "    const/4 v1, 0x0");
+          for (let k = 0; k < 5; k++) lines.push(`    ${apis[(c + m + k) % apis.length]}`, `    const-string v0, "org.example.value.${d}.${c}.${m}.${k}"`);
+          if (m === 0 && c % 7 === 0) lines.push(`    new-instance v2, ${next}`, `    invoke-direct {v2}, ${next}-><init>()V`);
+          if (m < 7) lines.push(`    invoke-static {}, ${cls}->s${m + 1}()V`);
+          lines.push("    return-void", ".end method", "");
+        }
+        writeFileSync(join(dir, `K${c}.smali`), lines.join("\n"));
+      }
+      if (d === 0) {
+        // The app's launcher activity (the beamtorch manifest names org.example.beamtorch.Torch): calls two libraries.
+        writeFileSync(join(dir, "Torch.smali"), [".class public Lorg/example/beamtorch/Torch;", ".super Landroid/app/Activity;", "", ".method public constructor <init>()V", "    .registers 1", "    invoke-direct {p0}, Landroid/app/Activity;-><init>()V", "    return-void", ".end method", "", ".method protected onCreate(Landroid/os/Bundle;)V", "    .registers 2", "    invoke-static {}, Lorg/example/lib1/p0/K0;->s0()V", "    invoke-static {}, Lorg/example/lib2/p0/K0;->s0()V", "    return-void", ".end method", ""].join("\n"));
+      }
+      const out = join(OUT, `real-${d}.dex`);
+      execFileSync("smali", ["assemble", "-o", out, dir]);
+      entries.push([d === 0 ? "classes.dex" : `classes${d + 1}.dex`, readFileSync(out)]);
+    }
+    const dexBytes = entries.reduce((n, [, b]) => n + b.length, 0);
+    // Padding (resources, assets) so the file is the size of a real app's APK (the dex compress well).
+    writeSyntheticApk(realApk, 14, Buffer.from(manifest), entries);
+    console.log(`(generated ${DEXES} dex files, ${(DEXES * PER + 1).toLocaleString("en")} classes, ${(dexBytes / 1e6).toFixed(1)} MB of dex, with smali in ${(ms(t0) / 1000).toFixed(1)} s)`);
+  }
+  console.log(`APK size: ${(statSync(realApk).size / 1e6).toFixed(1)} MB`);
+  const timedCheck = (extra) => {
+    const t = process.hrtime.bigint();
+    const r = spawnSync("/usr/bin/time", ["-f", "%M", process.execPath, join(ROOT, "bin/overask.js"), "check", "-c", "TOOLS", ...extra, realApk], { encoding: "utf8" });
+    if (r.status !== 0 && r.status !== 1) throw new Error(r.stderr);
+    return { ms: ms(t), rss: Number(r.stderr.trim().split("\n").pop()) / 1024, out: r.stdout };
+  };
+  const first = timedCheck([]);
+  const codeLine = /code {8}(.*?)\n\n/s.exec(first.out)?.[1]?.replace(/\s+/g, " ");
+  if (codeLine) console.log(`code line: ${codeLine}`);
+  const realWith = [];
+  const realWithout = [];
+  let rssWith = 0;
+  for (let i = 0; i < 5; i++) {
+    realWithout.push(timedCheck(["--no-code"]).ms);
+    const r = timedCheck([]);
+    realWith.push(r.ms);
+    rssWith = Math.max(rssWith, r.rss);
+  }
+  console.log(`check --no-code:                 median ${fmt(median(realWithout))} ms`);
+  console.log(`check (code evidence, call graph): median ${fmt(median(realWith))} ms = ${(median(realWith) / median(realWithout)).toFixed(2)}x check --no-code (goal within 3x), peak RSS ${rssWith.toFixed(0)} MB (goal < 512 MB)`);
 }
 
 if (!args.includes("--keep")) rmSync(OUT, { recursive: true, force: true });

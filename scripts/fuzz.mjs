@@ -247,7 +247,7 @@ export function makeInput(seeds, seed, i) {
 // ---------------------------------------------------------------------------------------------
 // The worker: runs inputs through the readers and reports anything that is not a typed error.
 
-let DEX_MANIFEST;
+const DEX_MANIFESTS = {};
 async function runOne(lib, input, tmp) {
   switch (input.kind) {
     case "file": {
@@ -256,9 +256,12 @@ async function runOne(lib, input, tmp) {
       return;
     }
     case "dex": {
-      // The reader, then the evidence stage over what it read (strings are decoded on demand there).
+      // The reader, then the evidence stage over what it read — class hierarchy, call graph from the
+      // manifest's entry points, component paths (strings are decoded on demand there).
       const dex = lib.readDex(input.bytes);
-      lib.codeEvidence(DEX_MANIFEST ??= lib.readManifestBytes(readFileSync(join(ROOT, "fixtures/apps/beamtorch/AndroidManifest.xml"))), [{ entry: "classes.dex", dex }]);
+      const app = input.name?.includes("echomemo") ? "echomemo" : "beamtorch";
+      const manifest = (DEX_MANIFESTS[app] ??= lib.readManifestBytes(readFileSync(join(ROOT, `fixtures/apps/${app}/AndroidManifest.xml`))));
+      lib.codeEvidence(manifest, [{ entry: "classes.dex", dex }]);
       return;
     }
     case "arsc": {

@@ -11,7 +11,7 @@ export { parsePlainXml } from "./extract/plain-xml.js";
 export { decodeProtoXml } from "./extract/proto/proto-xml.js";
 export { readDex, looksLikeDex, javaName, type DexFile, type DexClass, type DexMethodRef, type DexFieldRef } from "./extract/dex/dex.js";
 export { readDexEntries, DEX_ENTRY, type DexInput } from "./extract/code.js";
-export { codeEvidence, codeStatusText, evidenceLabel, packageGroup, BLIND_SPOTS, type CodeEvidence, type PermissionEvidence, type EvidenceItem, type CodeStatus } from "./score/code-evidence.js";
+export { codeEvidence, codeStatusText, evidenceLabel, blindSpotText, packageGroup, BLIND_SPOTS, type CodeEvidence, type PermissionEvidence, type EvidenceItem, type CodeStatus, type BlindSpot, type ComponentUse } from "./score/code-evidence.js";
 export { apiPermissionMap, type ApiPermissionMap, type MapEntry } from "./platform/api-map.js";
 export { buildManifest, qualifyClassName } from "./extract/manifest/build.js";
 export * from "./extract/manifest/model.js";

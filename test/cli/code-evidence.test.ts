@@ -64,4 +64,30 @@ describe("code evidence on the command line", () => {
     const json = JSON.parse((await cli(["delta", "-c", "TOOLS", "-f", "json", `${dir}/before.apk`, apk])).stdout);
     expect(json.code.appeared.map((e: { what: string }) => e.what.split("(")[0]).sort()).toEqual(["android.telephony.TelephonyManager.getLine1Number"]);
   });
+
+  it("trim on the voice-memo app: never proposes what reached code uses, ranks never-reached and not-seen first, and says the app loads code", async () => {
+    // fixtures/apps/echomemo, code in fixtures/smali/echomemo (assembled by Debian's smali).
+    const memo = `${APK_DIR}echomemo.apk`;
+    const json = JSON.parse((await cli(["trim", "-f", "json", memo])).stdout);
+    const perms = json.candidates.map((c: { permission: string }) => c.permission.replace("android.permission.", ""));
+    for (const p of ["RECORD_AUDIO", "FOREGROUND_SERVICE", "INTERNET"]) expect(perms).not.toContain(p);
+    // The one used candidate (READ_SMS, uncommon) comes last; every other is not seen or never reached.
+    expect(perms[perms.length - 1]).toBe("READ_SMS");
+    expect(json.candidates.slice(0, -1).map((c: { code: { status: string } }) => c.code.status).every((st: string) => st === "unreached" || st === "not-seen")).toBe(true);
+    expect(json.candidates[0].safe).toMatch(/loads code at run time or reflects on names built at run time/);
+    const source = `${dir}/EchoManifest.xml`;
+    copyFileSync(`${FIXTURES}apps/echomemo/AndroidManifest.xml`, source);
+    const r = await cli(["trim", memo, "--source", source, "--in-place"]);
+    expect(r.stderr).toContain("left READ_SMS: the app's code uses it");
+    const after = readFileSync(source, "utf8");
+    for (const p of ["RECORD_AUDIO", "FOREGROUND_SERVICE", "INTERNET", "READ_SMS"]) expect(after).toContain(`android.permission.${p}"`);
+    for (const p of ["READ_PHONE_STATE", "WAKE_LOCK", "CAMERA"]) expect(after).not.toContain(`android.permission.${p}"`);
+  });
+
+  it("check --format sarif carries the re-delegation warning with its path", async () => {
+    const sarif = JSON.parse((await cli(["check", "-f", "sarif", `${APK_DIR}echomemo.apk`])).stdout);
+    const result = sarif.runs[0].results.find((x: { ruleId: string }) => x.ruleId === "permission-redelegation");
+    expect(result.level).toBe("warning");
+    expect(result.message.text).toContain("SmsRelay.onReceive → org.example.echomemo.app.Inbox.lastCode → content://sms string");
+  });
 });
