@@ -6,7 +6,7 @@
  */
 import { compareText } from "../util/compare.js";
 import type { DexInput } from "../extract/code.js";
-import { javaName, methodCode, type DexFile } from "../extract/dex/dex.js";
+import { javaName, type DexFile } from "../extract/dex/dex.js";
 import { InputError } from "../errors.js";
 import { LIMITS } from "../limits.js";
 import type { Manifest } from "../extract/manifest/model.js";
@@ -133,19 +133,34 @@ interface Hit {
   /** Methods (program ids) holding it; -1 for manifest evidence. */
   methods: number[];
   classes: Set<string>;
+  /** The class last added (methods of a class come one after another): skips most set lookups. */
+  last?: string;
 }
 
 type Hits = Map<string, Hit>;
 
 const CLASS_LOADERS = new Set(["Ldalvik/system/DexClassLoader;", "Ldalvik/system/PathClassLoader;", "Ldalvik/system/InMemoryDexClassLoader;", "Ldalvik/system/DelegateLastClassLoader;", "Ldalvik/system/BaseDexClassLoader;"]);
-const NATIVE_LOADS = new Set(["Ljava/lang/System;->loadLibrary", "Ljava/lang/System;->load", "Ljava/lang/Runtime;->loadLibrary", "Ljava/lang/Runtime;->load"]);
 
 /** Per dex, each referenced id looked up in the maps once. */
 interface DexLookups {
-  methods: ({ what: string; entry: MapEntry } | null | undefined)[];
-  fields: (MapEntry | null | undefined)[];
-  strings: ({ what: string; kind: "uri" | "action"; entry: MapEntry } | null | undefined)[];
-  types: (MapEntry | null | undefined)[];
+  methods: ({ key: string; what: string; entry: MapEntry } | null | undefined)[];
+  /** Per method id: 1 a class loader's constructor, 2 a native-library load, 0 neither. */
+  blind: Int8Array;
+  fields: ({ key: string; what: string; entry: MapEntry } | null | undefined)[];
+  strings: ({ key: string; what: string; kind: "uri" | "action"; entry: MapEntry } | null | undefined)[];
+  types: ({ key: string; what: string; entry: MapEntry } | null | undefined)[];
+}
+
+let ownerDescriptors: Set<string> | undefined;
+let ownerDescriptorsOf: ApiPermissionMap | undefined;
+
+/** The classes that declare a mapped method, as type descriptors (made once per map). */
+function mappedOwners(map: ApiPermissionMap): Set<string> {
+  if (ownerDescriptorsOf !== map) {
+    ownerDescriptors = new Set([...map.methodOwners].map((c) => `L${c.replace(/\./g, "/")};`));
+    ownerDescriptorsOf = map;
+  }
+  return ownerDescriptors!;
 }
 
 /**
@@ -160,11 +175,11 @@ function lookupMethod(p: Program, map: ApiPermissionMap, d: number, i: number): 
     if (own && own.def.at >= 0) return null;
     owner = p.firstFramework(owner);
   }
-  const tail = `(${ref.params.map(javaName).join(",")})${javaName(ref.returns)}`;
+  const owners = mappedOwners(map);
   for (let depth = 0; owner && depth < 32; depth++) {
-    const cls = javaName(owner);
-    if (map.methodOwners.has(cls)) {
-      const exact = `${cls}.${ref.name}${tail}`;
+    if (owners.has(owner)) {
+      const cls = javaName(owner);
+      const exact = `${cls}.${ref.name}(${ref.params.map(javaName).join(",")})${javaName(ref.returns)}`;
       const e = map.methods.get(exact);
       const any = map.methodsAnyOverload.get(`${cls}.${ref.name}`);
       const entry = e && any ? { permissions: [...new Set([...e.permissions, ...any.permissions])], source: `${e.source}; ${any.source}` } : (e ?? any);
@@ -176,14 +191,21 @@ function lookupMethod(p: Program, map: ApiPermissionMap, d: number, i: number): 
   return null;
 }
 
+function blindKind(p: Program, d: number, i: number): number {
+  const ref = p.ref(d, i);
+  if (ref.name === "<init>" && CLASS_LOADERS.has(ref.owner)) return 1;
+  if ((ref.name === "loadLibrary" || ref.name === "load") && (ref.owner === "Ljava/lang/System;" || ref.owner === "Ljava/lang/Runtime;")) return 2;
+  return 0;
+}
+
 /** Every mapped method, field, content URI, broadcast action and class each method's code refers to; and the app's blind spots. */
 function scanProgram(p: Program, map: ApiPermissionMap, hits: Hits, blind: Map<BlindSpot["kind"], Set<string>>): void {
-  const lookups: DexLookups[] = p.dexes.map((d) => ({ methods: new Array(d.methodCount), fields: new Array(d.fieldCount), strings: new Array(d.stringCount), types: new Array(d.typeCount) }));
+  const lookups: DexLookups[] = p.dexes.map((d) => ({ methods: new Array(d.methodCount), blind: new Int8Array(d.methodCount).fill(-1), fields: new Array(d.fieldCount), strings: new Array(d.stringCount), types: new Array(d.typeCount) }));
   const add = (key: string, kind: EvidenceItem["kind"], what: string, entry: MapEntry, m: MethodNode) => {
     let h = hits.get(key);
     if (!h) hits.set(key, (h = { item: { kind, what, source: entry.source }, permissions: entry.permissions, methods: [], classes: new Set() }));
     h.methods.push(m.id);
-    h.classes.add(m.cls.descriptor);
+    if (h.last !== m.cls.descriptor) h.classes.add((h.last = m.cls.descriptor));
   };
   const note = (kind: BlindSpot["kind"], where: string) => {
     let set = blind.get(kind);
@@ -195,52 +217,62 @@ function scanProgram(p: Program, map: ApiPermissionMap, hits: Hits, blind: Map<B
     const d = m.cls.dex;
     const dex: DexFile = p.dexes[d];
     const L = lookups[d];
-    const code = methodCode(dex, m.def);
-    for (const packed of code.invokes) {
-      const i = packed >>> 3;
+    // The method's packed references (extract/dex/dex.ts, methodCode), read in place.
+    const c = dex.code;
+    let at = m.def.at;
+    const [ni, nf, ns, nt] = [c[at], c[at + 1], c[at + 2], c[at + 3]];
+    at += 4;
+    for (const end = at + ni; at < end; at++) {
+      const i = c[at] >>> 3;
       let r = L.methods[i];
-      if (r === undefined) r = L.methods[i] = lookupMethod(p, map, d, i);
-      if (r) add(`method ${r.what}`, "method", r.what, r.entry, m);
-      const ref = p.ref(d, i);
-      if (ref.name === "<init>" && CLASS_LOADERS.has(ref.owner)) note("class-loader", `${javaName(ref.owner).split(".").pop()} in ${javaName(m.cls.descriptor)}.${m.name}`);
-      else if (NATIVE_LOADS.has(`${ref.owner}->${ref.name}`)) note("native-code", `${javaName(m.cls.descriptor)}.${m.name} loads a native library`);
+      if (r === undefined) {
+        const found = lookupMethod(p, map, d, i);
+        r = L.methods[i] = found ? { key: `method ${found.what}`, ...found } : null;
+      }
+      if (r) add(r.key, "method", r.what, r.entry, m);
+      let b = L.blind[i];
+      if (b < 0) b = L.blind[i] = blindKind(p, d, i);
+      if (b === 1) note("class-loader", `${javaName(p.ref(d, i).owner).split(".").pop()} in ${javaName(m.cls.descriptor)}.${m.name}`);
+      else if (b === 2) note("native-code", `${javaName(m.cls.descriptor)}.${m.name} loads a native library`);
     }
-    for (const i of code.fields) {
+    for (const end = at + nf; at < end; at++) {
+      const i = c[at];
       let e = L.fields[i];
       if (e === undefined) {
         const f = dex.field(i);
-        e = L.fields[i] = map.fields.get(`${javaName(f.owner)}.${f.name}`) ?? null;
-      }
-      if (e) {
-        const f = dex.field(i);
         const what = `${javaName(f.owner)}.${f.name}`;
-        add(`field ${what}`, "field", what, e, m);
+        const entry = map.fields.get(what);
+        e = L.fields[i] = entry ? { key: `field ${what}`, what, entry } : null;
       }
+      if (e) add(e.key, "field", e.what, e.entry, m);
     }
-    for (const i of code.strings) {
+    for (const end = at + ns; at < end; at++) {
+      const i = c[at];
       let r = L.strings[i];
       if (r === undefined) {
         r = null;
         // Only content URIs and broadcast actions matter: other strings are never decoded.
         if (dex.stringStartsWith(i, "content://")) {
           const u = uriEntry(map, dex.string(i));
-          if (u) r = { what: u.uri, kind: "uri", entry: u.entry };
+          if (u) r = { key: `uri ${u.uri}`, what: u.uri, kind: "uri", entry: u.entry };
         } else if (dex.stringStartsWith(i, "android.")) {
           const s = dex.string(i);
           const a = map.actions.get(s);
-          if (a) r = { what: s, kind: "action", entry: a };
+          if (a) r = { key: `action ${s}`, what: s, kind: "action", entry: a };
         }
         L.strings[i] = r;
       }
-      if (r) add(`${r.kind} ${r.what}`, r.kind, r.what, r.entry, m);
+      if (r) add(r.key, r.kind, r.what, r.entry, m);
     }
-    for (const i of code.types) {
+    for (const end = at + nt; at < end; at++) {
+      const i = c[at];
       let e = L.types[i];
-      if (e === undefined) e = L.types[i] = map.classes.get(javaName(dex.type(i))) ?? null;
-      if (e) {
+      if (e === undefined) {
         const what = javaName(dex.type(i));
-        add(`class ${what}`, "class", what, e, m);
+        const entry = map.classes.get(what);
+        e = L.types[i] = entry ? { key: `class ${what}`, what, entry } : null;
       }
+      if (e) add(e.key, "class", e.what, e.entry, m);
     }
   }
 }
@@ -321,13 +353,25 @@ export function codeEvidence(manifest: Manifest, dexes: readonly DexInput[], opt
   };
 }
 
+function isLauncher(c: Manifest["components"][number]): boolean {
+  return c.kind !== "provider" && c.intentFilters.some((f) => f.actions.includes("android.intent.action.MAIN") && f.categories.includes("android.intent.category.LAUNCHER"));
+}
+
 /** For each exported component: every permission its reached code uses, with the shortest path to the evidence. */
 function usesOfExported(manifest: Manifest, p: Program, r: Reachability, hits: Hits): ComponentUse[] {
+  // Only reached methods can be on a path.
   const byMethod = new Map<number, Hit[]>();
-  for (const h of hits.values()) for (const id of h.methods) if (id >= 0) byMethod.set(id, [...(byMethod.get(id) ?? []), h]);
+  for (const h of hits.values())
+    for (const id of h.methods) {
+      if (id < 0 || !r.reached[id]) continue;
+      const list = byMethod.get(id);
+      if (list) list.push(h);
+      else byMethod.set(id, [h]);
+    }
   const out: ComponentUse[] = [];
   for (const comp of manifest.components) {
-    if (!comp.effectiveExported || comp.enabled === false) continue;
+    // Launcher activities are meant for everyone (the re-delegation check leaves them out).
+    if (!comp.effectiveExported || comp.enabled === false || isLauncher(comp)) continue;
     const cls = p.byJavaName(comp.kind === "activity-alias" && comp.targetActivity ? comp.targetActivity : comp.name);
     if (!cls) continue;
     const from: MethodNode[] = [];

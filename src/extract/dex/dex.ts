@@ -16,6 +16,8 @@ export interface DexMethodRef {
   /** Parameter type descriptors and the return type descriptor. */
   params: string[];
   returns: string;
+  /** `name(params)returns` in descriptors: the key a method is found by across dex files. */
+  sig: string;
 }
 
 export interface DexFieldRef {
@@ -48,10 +50,6 @@ export interface DexClass {
   /** Interfaces the class declares it implements (its own list, not inherited ones). */
   interfaces: string[];
   accessFlags: number;
-  /** Indices into `methods`, `fields` and `strings` that this class's code uses (unique, in the order the code first uses them). */
-  methodRefs: number[];
-  fieldRefs: number[];
-  stringRefs: number[];
   /** The methods it defines, direct then virtual, in file order. */
   methods: DexMethodDef[];
 }
@@ -105,6 +103,20 @@ export function methodCode(dex: Pick<DexFile, "code">, def: DexMethodDef): Metho
   let p = def.at + 4;
   const take = (n: number) => c.subarray(p, (p += n));
   return { invokes: take(ni), fields: take(nf), strings: take(ns), types: take(nt) };
+}
+
+/** Indices into the method, field and string ids that a class's code uses, each once, in the order its methods first use them. */
+export function classRefs(dex: Pick<DexFile, "code">, cls: DexClass): { methodRefs: number[]; fieldRefs: number[]; stringRefs: number[] } {
+  const m = new Set<number>();
+  const f = new Set<number>();
+  const s = new Set<number>();
+  for (const def of cls.methods) {
+    const code = methodCode(dex, def);
+    for (const v of code.invokes) m.add(v >>> 3);
+    for (const v of code.fields) f.add(v);
+    for (const v of code.strings) s.add(v);
+  }
+  return { methodRefs: [...m], fieldRefs: [...f], stringRefs: [...s] };
 }
 
 const EMPTY_CODE: MethodCode = { invokes: new Int32Array(0), fields: new Int32Array(0), strings: new Int32Array(0), types: new Int32Array(0) };
@@ -263,8 +275,8 @@ function idLookups(r: ByteReader, h: ReturnType<typeof readHeader>, str: (i: num
     if (!(i >= 0 && i < typeT.size)) throw new DexError(`${what} names type ${i}, past the ${typeT.size} types`);
     return (typeCache[i] ??= str(dv.getUint32(typeT.off + 4 * i, true), "type_id"));
   };
-  const protoCache = new Array<{ params: string[]; returns: string } | undefined>(protoT.size);
-  const proto = (i: number): { params: string[]; returns: string } => {
+  const protoCache = new Array<{ params: string[]; returns: string; shape: string } | undefined>(protoT.size);
+  const proto = (i: number): { params: string[]; returns: string; shape: string } => {
     let v = protoCache[i];
     if (v) return v;
     const base = protoT.off + 12 * i;
@@ -277,7 +289,7 @@ function idLookups(r: ByteReader, h: ReturnType<typeof readHeader>, str: (i: num
       r.need(listOff + 4, 2 * n, "type_list");
       for (let k = 0; k < n; k++) params.push(type(dv.getUint16(listOff + 4 + 2 * k, true), "type_list"));
     }
-    return (protoCache[i] = v = { params, returns });
+    return (protoCache[i] = v = { params, returns, shape: `(${params.join("")})${returns}` });
   };
   const fieldCache = new Array<DexFieldRef | undefined>(fieldT.size);
   const field = (i: number): DexFieldRef => {
@@ -294,7 +306,8 @@ function idLookups(r: ByteReader, h: ReturnType<typeof readHeader>, str: (i: num
     const protoIdx = dv.getUint16(base + 2, true);
     if (protoIdx >= protoT.size) throw new DexError(`method_id ${i} names proto ${protoIdx}, past the ${protoT.size} protos`);
     const pr = proto(protoIdx);
-    return (methodCache[i] = m = { owner: type(dv.getUint16(base, true), "method_id"), name: str(dv.getUint32(base + 4, true), "method_id"), params: pr.params, returns: pr.returns });
+    const name = str(dv.getUint32(base + 4, true), "method_id");
+    return (methodCache[i] = m = { owner: type(dv.getUint16(base, true), "method_id"), name, params: pr.params, returns: pr.returns, sig: name + pr.shape });
   };
   return { type, field, method };
 }
@@ -318,9 +331,7 @@ function readClasses(bytes: Uint8Array, r: ByteReader, h: ReturnType<typeof read
   const { strT, typeT, fieldT, methodT, classT } = h;
   const classes: DexClass[] = [];
   let codeUnits = 0;
-  // Which class (and which method) last noted each id: a reference is listed once per class and once per
-  // method without a set per class or method.
-  const seen = { m: new Int32Array(methodT.size), f: new Int32Array(fieldT.size), s: new Int32Array(strT.size) };
+  // Which method last noted each id: a reference is listed once per method without a set per method.
   const seenByMethod = { m: new Int32Array(methodT.size), f: new Int32Array(fieldT.size), s: new Int32Array(strT.size), t: new Int32Array(typeT.size) };
   const sizes = { strings: strT.size, methods: methodT.size, fields: fieldT.size, types: typeT.size };
   const packed = new Packed();
@@ -332,7 +343,6 @@ function readClasses(bytes: Uint8Array, r: ByteReader, h: ReturnType<typeof read
     const superIdx = r.u32(base + 8, "class_def superclass_idx");
     const interfacesOff = r.u32(base + 12, "class_def interfaces_off");
     const dataOff = r.u32(base + 24, "class_def class_data_off");
-    const refs: Refs = { stamp: i + 1, m: [], f: [], s: [], seen };
     const methods: DexMethodDef[] = [];
     const interfaces: string[] = [];
     if (interfacesOff) {
@@ -370,7 +380,7 @@ function readClasses(bytes: Uint8Array, r: ByteReader, h: ReturnType<typeof read
           r.need(codeOff + 16, 2 * insns, "code_item insns");
           scratch.stamp++;
           scratch.inv.length = scratch.f.length = scratch.s.length = scratch.t.length = 0;
-          scanCode(r, codeOff + 16, insns, refs, scratch, sizes);
+          scanCode(r, codeOff + 16, insns, scratch, sizes);
           methods.push({ id, accessFlags: flags, direct: list === 0, at: packed.length });
           packed.push(scratch.inv.length);
           packed.push(scratch.f.length);
@@ -388,9 +398,6 @@ function readClasses(bytes: Uint8Array, r: ByteReader, h: ReturnType<typeof read
       ...(superIdx !== NO_INDEX ? { superclass: type(superIdx, "class_def superclass") } : {}),
       interfaces,
       accessFlags,
-      methodRefs: refs.m,
-      fieldRefs: refs.f,
-      stringRefs: refs.s,
       methods,
     });
   }
@@ -433,15 +440,6 @@ export function readDex(bytes: Uint8Array): DexFile {
   };
 }
 
-/** Walks one method's instructions, noting the methods invoked, the fields read or written, and the strings loaded. */
-interface Refs {
-  /** The class's number (from 1): `seen` holds, per id, the last class that noted it. */
-  stamp: number;
-  m: number[];
-  f: number[];
-  s: number[];
-  seen: { m: Int32Array; f: Int32Array; s: Int32Array };
-}
 
 /** The references of the method being scanned, with stamps of their own (one per method). */
 interface MethodScratch {
@@ -456,7 +454,7 @@ interface MethodScratch {
 /** invoke-kind of opcodes 0x6e-0x72 and their /range forms 0x74-0x78. */
 const KIND_OF: readonly number[] = [InvokeKind.Virtual, InvokeKind.Super, InvokeKind.Direct, InvokeKind.Static, InvokeKind.Interface];
 
-function scanCode(r: ByteReader, start: number, units: number, refs: Refs, m: MethodScratch, sizes: { strings: number; methods: number; fields: number; types: number }): void {
+function scanCode(r: ByteReader, start: number, units: number, m: MethodScratch, sizes: { strings: number; methods: number; fields: number; types: number }): void {
   // The caller checked that all `units` code units lie inside the file: they are read directly.
   const b = r.bytes;
   const unit = (pc: number) => b[start + 2 * pc] | (b[start + 2 * pc + 1] << 8);
@@ -481,11 +479,10 @@ function scanCode(r: ByteReader, start: number, units: number, refs: Refs, m: Me
     if (op === 0x1a || op === 0x1b) {
       const i = op === 0x1a ? unit(pc + 1) : unit(pc + 1) | (unit(pc + 2) << 16);
       const what = op === 0x1a ? "const-string" : "const-string/jumbo";
-      note(refs.s, refs.seen.s, refs.stamp, i, sizes.strings, what);
       note(m.s, m.seen.s, m.stamp, i, sizes.strings, what);
     } else if ((op >= 0x6e && op <= 0x72) || (op >= 0x74 && op <= 0x78) || op === 0xfa || op === 0xfb) {
       const i = unit(pc + 1);
-      note(refs.m, refs.seen.m, refs.stamp, i, sizes.methods, "invoke");
+      if (i >= sizes.methods) throw new DexError(`invoke names index ${i}, past a table of ${sizes.methods}`);
       // A method called two ways (rare) keeps its first kind.
       if (m.seen.m[i] !== m.stamp) {
         m.seen.m[i] = m.stamp;
@@ -493,7 +490,6 @@ function scanCode(r: ByteReader, start: number, units: number, refs: Refs, m: Me
       }
     } else if (op >= 0x52 && op <= 0x6d) {
       const i = unit(pc + 1);
-      note(refs.f, refs.seen.f, refs.stamp, i, sizes.fields, "field access");
       note(m.f, m.seen.f, m.stamp, i, sizes.fields, "field access");
     } else if (op === 0x22 || op === 0x1c) note(m.t, m.seen.t, m.stamp, unit(pc + 1), sizes.types, op === 0x22 ? "new-instance" : "const-class");
     pc += w;

@@ -86,7 +86,7 @@ export class Program {
     let r = this.refs[d][i];
     if (!r) {
       const m = this.dexes[d].method(i);
-      r = this.refs[d][i] = { owner: m.owner, name: m.name, params: m.params, returns: m.returns, sig: `${m.name}(${m.params.join("")})${m.returns}` };
+      r = this.refs[d][i] = m;
     }
     return r;
   }

@@ -99,7 +99,7 @@ export function walkMethod(w: Walk, m: MethodNode): { reflects: boolean; constan
       const t = p.resolve(c.descriptor, ref.sig);
       if (t) w.edge(t);
     }
-    if (!reflects && REFLECTION_BY_NAME.has(`${ref.owner}->${ref.name}`)) reflects = true;
+    if (!reflects && (ref.owner === "Ljava/lang/Class;" || ref.owner === "Ljava/lang/ClassLoader;" || ref.owner === "Ljava/lang/reflect/Method;") && REFLECTION_BY_NAME.has(`${ref.owner}->${ref.name}`)) reflects = true;
   }
   for (const t of code.types) {
     const c = p.classes.get(dex.type(t));
@@ -118,7 +118,7 @@ export function walkMethod(w: Walk, m: MethodNode): { reflects: boolean; constan
       const c = text.length < 512 && text.includes(".") ? p.byJavaName(text) : undefined;
       if (c) named.push(c);
       else if (text.length < 256) others.push(text);
-      if (/^[A-Za-z_$][\w$]*(\.[A-Za-z_$][\w$]*)+$/.test(text)) constantNames = true;
+      if (reflects && !constantNames && /^[A-Za-z_$][\w$]*(\.[A-Za-z_$][\w$]*)+$/.test(text)) constantNames = true;
     }
     for (const c of named) {
       w.instantiate(c);

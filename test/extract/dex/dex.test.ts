@@ -9,7 +9,7 @@ import { mkdtempSync, readFileSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { describe, expect, it } from "vitest";
 import { DexError, LimitError } from "../../../src/errors.js";
-import { javaName, readDex, type DexFile } from "../../../src/extract/dex/dex.js";
+import { classRefs, javaName, readDex, type DexFile } from "../../../src/extract/dex/dex.js";
 import { DUMP_DIR, FIXTURES } from "../../helpers/paths.js";
 
 interface DumpedClass {
@@ -38,8 +38,8 @@ function parseDexdump(text: string): DumpedClass[] {
 }
 
 function ours(dex: DexFile): DumpedClass[] {
-  return dex.classes.map((c) => ({
-    descriptor: c.descriptor,
+  return dex.classes.map((cls) => ({ cls, ...classRefs(dex, cls) })).map((c) => ({
+    descriptor: c.cls.descriptor,
     methods: new Set(c.methodRefs.map((i) => dex.methods[i]).map((m) => `${m.owner}.${m.name}(${m.params.join("")})${m.returns}`)),
     fields: new Set(c.fieldRefs.map((i) => dex.fields[i]).map((f) => `${f.owner}.${f.name}:${f.type}`)),
     strings: new Set(c.stringRefs.map((i) => dex.strings[i])),
@@ -59,7 +59,7 @@ describe("readDex against dexdump", () => {
 
   it("sees the framework calls the torch's code makes", () => {
     const dex = readDex(readFileSync(`${FIXTURES}dex/beamtorch-classes.dex`));
-    const torch = dex.classes.find((c) => c.descriptor === "Lorg/example/beamtorch/Torch;")!;
+    const torch = classRefs(dex, dex.classes.find((c) => c.descriptor === "Lorg/example/beamtorch/Torch;")!);
     expect(torch.methodRefs.map((i) => `${javaName(dex.methods[i].owner)}.${dex.methods[i].name}`)).toContain("android.telephony.SmsManager.sendTextMessage");
     expect(torch.stringRefs.map((i) => dex.strings[i])).toContain("content://sms/inbox");
   });

@@ -29,7 +29,7 @@ describe("the program of an app's dex files", () => {
 
 /** A dex of hand-made classes: just what the program reads. */
 function fakeDex(classes: { d: string; sup?: string; interfaces?: string[] }[]): DexFile {
-  const defs: DexClass[] = classes.map((c) => ({ descriptor: c.d, ...(c.sup ? { superclass: c.sup } : {}), interfaces: c.interfaces ?? [], accessFlags: 1, methodRefs: [], fieldRefs: [], stringRefs: [], methods: [] }));
+  const defs: DexClass[] = classes.map((c) => ({ descriptor: c.d, ...(c.sup ? { superclass: c.sup } : {}), interfaces: c.interfaces ?? [], accessFlags: 1, methods: [] }));
   return { classes: defs, methodCount: 0, code: new Int32Array(0), method: () => { throw new Error("no methods"); } } as unknown as DexFile;
 }
 
