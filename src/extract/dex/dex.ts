@@ -316,13 +316,21 @@ function idLookups(r: ByteReader, h: ReturnType<typeof readHeader>, str: (i: num
 class Packed {
   buf = new Int32Array(4096);
   length = 0;
-  push(v: number): void {
-    if (this.length === this.buf.length) {
-      const next = new Int32Array(this.buf.length * 2);
-      next.set(this.buf);
-      this.buf = next;
-    }
-    this.buf[this.length++] = v;
+  /** Room for `n` more values (grown by doubling). */
+  reserve(n: number): void {
+    if (this.length + n <= this.buf.length) return;
+    let size = this.buf.length * 2;
+    while (size < this.length + n) size *= 2;
+    const next = new Int32Array(size);
+    next.set(this.buf.subarray(0, this.length));
+    this.buf = next;
+  }
+  /** Appends a list (room reserved first). */
+  append(list: readonly number[]): void {
+    const b = this.buf;
+    let at = this.length;
+    for (let k = 0; k < list.length; k++) b[at++] = list[k];
+    this.length = at;
   }
 }
 
@@ -382,14 +390,17 @@ function readClasses(bytes: Uint8Array, r: ByteReader, h: ReturnType<typeof read
           scratch.inv.length = scratch.f.length = scratch.s.length = scratch.t.length = 0;
           scanCode(r, codeOff + 16, insns, scratch, sizes);
           methods.push({ id, accessFlags: flags, direct: list === 0, at: packed.length });
-          packed.push(scratch.inv.length);
-          packed.push(scratch.f.length);
-          packed.push(scratch.s.length);
-          packed.push(scratch.t.length);
-          for (const v of scratch.inv) packed.push(v);
-          for (const v of scratch.f) packed.push(v);
-          for (const v of scratch.s) packed.push(v);
-          for (const v of scratch.t) packed.push(v);
+          packed.reserve(4 + scratch.inv.length + scratch.f.length + scratch.s.length + scratch.t.length);
+          const b = packed.buf;
+          b[packed.length] = scratch.inv.length;
+          b[packed.length + 1] = scratch.f.length;
+          b[packed.length + 2] = scratch.s.length;
+          b[packed.length + 3] = scratch.t.length;
+          packed.length += 4;
+          packed.append(scratch.inv);
+          packed.append(scratch.f);
+          packed.append(scratch.s);
+          packed.append(scratch.t);
         }
       }
     }
