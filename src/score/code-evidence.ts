@@ -10,7 +10,7 @@ import { javaName, type DexFile } from "../extract/dex/dex.js";
 import { InputError } from "../errors.js";
 import { LIMITS } from "../limits.js";
 import type { Manifest } from "../extract/manifest/model.js";
-import { requestedPermissionNames } from "../extract/manifest/model.js";
+import { isLauncher, requestedPermissionNames } from "../extract/manifest/model.js";
 import { apiPermissionMap, uriEntry, type ApiPermissionMap, type MapEntry } from "../platform/api-map.js";
 import { Program, type MethodNode } from "./code/program.js";
 import { callbacks, entryClasses, pathsFrom, reachability, type Reachability } from "./code/reach.js";
@@ -112,7 +112,7 @@ function ownCode(manifest: Manifest, manifestClasses: readonly string[]): OwnCod
   const roots = new Set<string>(app ? [app] : []);
   for (const c of manifestClasses) if (c.includes(".")) roots.add(c.slice(0, c.lastIndexOf(".")));
   const parts = app.split(".");
-  const sibling = parts.length >= 4 ? parts.slice(0, -1).join(".") : parts.length === 3 ? undefined : undefined;
+  const sibling = parts.length >= 4 ? parts.slice(0, -1).join(".") : undefined;
   return { app, roots: [...roots], ...(sibling ? { sibling } : {}) };
 }
 
@@ -351,10 +351,6 @@ export function codeEvidence(manifest: Manifest, dexes: readonly DexInput[], opt
     ...(reach ? { reachability: { methods: program.methods.length, reached: reach.count, entries: reach.instantiated.size } } : {}),
     componentUses,
   };
-}
-
-function isLauncher(c: Manifest["components"][number]): boolean {
-  return c.kind !== "provider" && c.intentFilters.some((f) => f.actions.includes("android.intent.action.MAIN") && f.categories.includes("android.intent.category.LAUNCHER"));
 }
 
 /** For each exported component: every permission its reached code uses, with the shortest path to the evidence. */

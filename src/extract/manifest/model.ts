@@ -174,6 +174,11 @@ export interface Manifest {
   notes: string[];
 }
 
+/** A launcher entry point (MAIN + LAUNCHER): meant to be started by everyone, and seen by the user. */
+export function isLauncher(c: Component): boolean {
+  return c.intentFilters.some((f) => f.actions.includes("android.intent.action.MAIN") && f.categories.includes("android.intent.category.LAUNCHER"));
+}
+
 /** The distinct permissions a manifest requests (after tools:node="remove"), sorted. */
 export function requestedPermissionNames(m: Manifest): string[] {
   // Asked for many times per app (every check, the risk model, the row): computed once per manifest.

@@ -1,12 +1,7 @@
 /** exported-unguarded: components other apps can reach without holding any permission. */
-import type { Component } from "../../extract/manifest/model.js";
+import { isLauncher } from "../../extract/manifest/model.js";
 import { onlyShowsHealthRationale } from "../needed.js";
 import type { Check } from "../types.js";
-
-/** The launcher entry point is meant to be reachable by everyone (so is Health Connect's rationale activity). */
-function isLauncher(c: Component): boolean {
-  return c.intentFilters.some((f) => f.actions.includes("android.intent.action.MAIN") && f.categories.includes("android.intent.category.LAUNCHER"));
-}
 
 export const exportedUnguarded: Check = {
   meta: {
@@ -19,7 +14,7 @@ export const exportedUnguarded: Check = {
   },
   run(ctx) {
     return ctx.manifest.components
-      .filter((c) => c.effectiveExported && c.enabled !== false && !isLauncher(c) && !onlyShowsHealthRationale(c))
+      .filter((c) => c.effectiveExported && c.enabled !== false && !isLauncher(c) && !onlyShowsHealthRationale(c)) // the launcher, and Health Connect's rationale screen, are meant for everyone
       .filter((c) => !c.permission && !(c.kind === "provider" && (c.readPermission || c.writePermission)))
       .map((c) => ({ subject: c.name, location: c.source, data: { kind: c.kind, reason: c.exportedReason } }));
   },

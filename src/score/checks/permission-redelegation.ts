@@ -10,7 +10,7 @@
  */
 import { isOwnPermission } from "../../baseline/judged.js";
 import type { Component, Manifest } from "../../extract/manifest/model.js";
-import { requestedPermissionNames } from "../../extract/manifest/model.js";
+import { isLauncher, requestedPermissionNames } from "../../extract/manifest/model.js";
 import { platformPermission } from "../../platform/permissions.js";
 import { isSpecialAccess, sensitivityOf } from "../../platform/sensitivity.js";
 import type { Check } from "../types.js";
@@ -39,10 +39,6 @@ export function redelegationLevel(permission: string): "dangerous" | "signature"
   return undefined;
 }
 
-function isLauncher(c: Component): boolean {
-  return c.intentFilters.some((f) => f.actions.includes("android.intent.action.MAIN") && f.categories.includes("android.intent.category.LAUNCHER"));
-}
-
 export const permissionRedelegation: Check = {
   meta: {
     id: "permission-redelegation",
@@ -58,7 +54,7 @@ export const permissionRedelegation: Check = {
     const held = new Set(requestedPermissionNames(ctx.manifest));
     const out: ReturnType<Check["run"]> = [];
     for (const c of ctx.manifest.components) {
-      if (!c.effectiveExported || c.enabled === false || (c.kind === "activity" && isLauncher(c))) continue;
+      if (!c.effectiveExported || c.enabled === false || isLauncher(c)) continue;
       const open = openGuard(ctx.manifest, c);
       if (!open) continue;
       const uses = code.componentUses.filter((u) => u.component === c.name && held.has(u.permission) && !isOwnPermission(ctx.manifest, u.permission));

@@ -59,13 +59,11 @@ export class Program {
   readonly classes = new Map<string, ClassNode>();
   readonly methods: MethodNode[] = [];
   readonly problems: string[] = [];
-  private readonly refs: (MethodRefInfo | undefined)[][];
   private readonly ancestorCache = new Map<string, readonly string[]>();
   private byJava?: Map<string, ClassNode>;
   private readonly reportedLoops = new Set<string>();
 
   constructor(readonly dexes: readonly DexFile[]) {
-    this.refs = dexes.map((d) => new Array(d.methodCount));
     dexes.forEach((dex, d) => {
       for (const def of dex.classes) {
         if (this.classes.has(def.descriptor)) continue;
@@ -81,14 +79,9 @@ export class Program {
     });
   }
 
-  /** The method id `i` of dex `d`, with its signature key (made once). */
+  /** The method id `i` of dex `d`, with its signature key (the dex makes each once). */
   ref(d: number, i: number): MethodRefInfo {
-    let r = this.refs[d][i];
-    if (!r) {
-      const m = this.dexes[d].method(i);
-      r = this.refs[d][i] = m;
-    }
-    return r;
+    return this.dexes[d].method(i);
   }
 
   /** A class by its Java name (`org.example.app.Main`), for names in the manifest and in string constants. */

@@ -13,7 +13,7 @@
  *   and other string constants of the same method name methods of those classes (getMethod("name")).
  */
 import { ACC, InvokeKind, methodCode, javaName } from "../../extract/dex/dex.js";
-import { OBJECT, type ClassNode, type MethodNode, type Program } from "./program.js";
+import type { ClassNode, MethodNode, Program } from "./program.js";
 
 /** Methods of java.lang.Object the runtime itself calls on any object (toString by string building, …). */
 const OBJECT_CALLBACKS = ["toString()Ljava/lang/String;", "equals(Ljava/lang/Object;)Z", "hashCode()I", "finalize()V", "clone()Ljava/lang/Object;"];
@@ -237,4 +237,3 @@ export function pathsFrom(p: Program, r: Reachability, from: readonly MethodNode
   return out;
 }
 
-export { OBJECT };
